@@ -1,0 +1,92 @@
+/**
+ * Result types shared by the fitter, comparison, reports, the command line and widgets.
+ * A fit that fails is a FitResult with converged = false, never an exception.
+ */
+
+/** How the data's scatter is modelled. "auto" picks poisson for integer counts, else gaussian. */
+export type NoiseModelId = "gaussian" | "poisson" | "robust";
+
+/** Why the solver stopped. One table (fit/status) maps each to a message. */
+export type StopReason =
+  | "converged-gradient"
+  | "converged-step"
+  | "converged-objective"
+  | "max-evaluations"
+  | "cancelled"
+  | "non-finite"
+  | "singular"
+  | "invalid-start";
+
+export interface FitParameter {
+  name: string;
+  /** SI unit symbol. */
+  unit: string;
+  /** Best-fit value (SI). */
+  value: number;
+  /** Standard uncertainty (SI); 0 for fixed parameters, Infinity when it cannot be estimated. */
+  stderr: number;
+  fixed: boolean;
+  /** Expression this parameter is tied to, or null. */
+  tied: string | null;
+  /** Which bound the value sits on at the end, if any. */
+  atBound: "lower" | "upper" | null;
+  lower: number;
+  upper: number;
+}
+
+export interface FitStatistics {
+  /** Number of points used (mask = 1). */
+  n: number;
+  /** Number of free parameters. */
+  nFree: number;
+  /** n − nFree. */
+  dof: number;
+  /** Σ ((y − f)/σ)²; for the Poisson model, Pearson's χ² with σ² = f. */
+  chi2: number;
+  reducedChi2: number;
+  /** The minimised objective: χ² (gaussian), Poisson deviance 2Σ[f − y + y ln(y/f)] (poisson), robust loss sum (robust). */
+  objective: number;
+  /** Full log-likelihood at the optimum, including constants, for AIC/BIC. */
+  logLikelihood: number;
+  aic: number;
+  aicc: number;
+  bic: number;
+}
+
+export interface FitWarning {
+  /** Stable code, e.g. "at-bound", "ill-conditioned", "non-finite-model", "outliers-flagged". */
+  code: string;
+  message: string;
+  parameter?: string;
+}
+
+export interface FitResult {
+  modelId: string;
+  noise: NoiseModelId;
+  converged: boolean;
+  reason: StopReason;
+  /** Human-readable stop message (from the status table). */
+  message: string;
+  iterations: number;
+  /** Model evaluations (Jacobian evaluations counted separately). */
+  evaluations: number;
+  jacobianEvaluations: number;
+  /** All model parameters in model order, fixed ones included. */
+  parameters: FitParameter[];
+  /** Names of the free parameters, in the order of covariance rows/columns. */
+  freeNames: string[];
+  /** Covariance of the free parameters, row-major nFree × nFree (SI²). */
+  covariance: Float64Array;
+  /** Correlation matrix of the free parameters, row-major nFree × nFree. */
+  correlation: Float64Array;
+  /** Whether the covariance was scaled by the reduced χ² (σ treated as relative). */
+  covarianceScaled: boolean;
+  statistics: FitStatistics;
+  warnings: FitWarning[];
+  /** Model values at every x of the profile (masked points included). */
+  model: Float64Array;
+  /** Normalised residuals (y − f)/σ (Pearson) at every x; NaN where masked. */
+  residuals: Float64Array;
+  /** Indices flagged as outliers by the robust loss (empty otherwise). */
+  flagged: number[];
+}

@@ -1,0 +1,5 @@
+// Public API of fringekit: re-exports only.
+export * from "./errors.js";
+export type { Profile, Provenance } from "./profile.js";
+export type { Model, ParameterSpec } from "./physics/model.js";
+export type * from "./fit/types.js";

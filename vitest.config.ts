@@ -1,0 +1,13 @@
+import { defineConfig } from "vitest/config";
+
+// Integration tests start Jupyter kernels, servers and Chromium: generous timeouts,
+// and few workers because CI machines have 2 cores.
+export default defineConfig({
+  test: {
+    include: ["test/**/*.test.ts"],
+    testTimeout: 120_000,
+    hookTimeout: 180_000,
+    pool: "forks",
+    maxWorkers: 2,
+  },
+});
