@@ -3,3 +3,4 @@ export * from "./errors.js";
 export type { Profile, Provenance } from "./profile.js";
 export type { Model, ParameterSpec } from "./physics/model.js";
 export type * from "./fit/types.js";
+export * from "./report/index.js";
