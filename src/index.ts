@@ -4,3 +4,4 @@ export type { Profile, Provenance } from "./profile.js";
 export type { Model, ParameterSpec } from "./physics/model.js";
 export type * from "./fit/types.js";
 export * from "./report/index.js";
+export * from "./stats/index.js";
