@@ -1,0 +1,115 @@
+/**
+ * Loads tslab's internal modules and checks they are exactly the ones this extension was
+ * written against. The extension replaces methods of tslab's ZmqServer and wraps its executor,
+ * so any change in tslab must stop the kernel with a clear message rather than misbehave.
+ */
+import { createHash } from "node:crypto";
+import { readFileSync } from "node:fs";
+import { createRequire } from "node:module";
+import path from "node:path";
+
+/** The only tslab version the extension supports (package.json pins it exactly). */
+export const TSLAB_VERSION = "1.0.22";
+
+/** SHA-256 of the tslab 1.0.22 files whose internals the extension relies on. */
+const PINNED_FILES: Record<string, string> = {
+  "dist/main.js": "e3b60b922e8ebf203b8f8c666598247f710ffb1b5ad3c145c8b74c5a27e11476",
+  "dist/jupyter.js": "186ae73149b280330d965b087933efa9eea51187f319f4163b44ae06327aef5f",
+  "dist/executor.js": "0a9b6c73679be6169390df7cb2000121bcddaaa78872a92da1e83a34174e8c9e",
+  "dist/public.js": "356dbf62ce5b5f183a6d8fea629292ad3e5ae151770833e563528e2dd2176bf0",
+};
+
+/** The executor object tslab's createExecutor returns (the parts the extension uses). */
+export interface TslabExecutor {
+  execute(src: string): Promise<boolean>;
+  interrupt(): void;
+  close(): void;
+  locals: Record<string, unknown>;
+}
+
+/** Console-like sink tslab's executor reports to: `log(lastValue)`, `error(...)` for failures. */
+export interface ExecutorConsole {
+  log(...args: unknown[]): void;
+  error(...args: unknown[]): void;
+}
+
+/** tslab's internal modules, typed just enough for the extension. */
+export interface TslabInternals {
+  root: string;
+  version: string;
+  main: { startKernel(options: { configPath: string; enableFindLocal?: boolean; jsKernel?: boolean; globalVersion?: string }): void };
+  jupyter: {
+    ZmqServer: { prototype: Record<string, unknown> };
+    JupyterHandlerImpl: { prototype: Record<string, unknown> };
+    lastWriteDisplayData: unknown;
+  };
+  executor: { createExecutor(rootDir: string, convs: unknown, console: ExecutorConsole): TslabExecutor };
+  converter: { isCompleteCode(code: string): { completed: boolean; indent: string } };
+  typescript: Record<string, unknown> & { version: string };
+}
+
+/** Thrown when the installed tslab is not the pinned one; names what differs and what to do. */
+export class TslabPinError extends Error {
+  constructor(problem: string) {
+    super(
+      `fringekit kernel: ${problem}. The kernel extension wraps tslab ${TSLAB_VERSION} internals and ` +
+        `cannot run on a different tslab; reinstall fringekit's dependencies (npm ci) so tslab ${TSLAB_VERSION} is used.`,
+    );
+    this.name = "TslabPinError";
+  }
+}
+
+/**
+ * Resolves tslab from this package, verifies version, file hashes and the shape of the
+ * internals, and returns them. Throws `TslabPinError` on any mismatch.
+ * @param fromUrl module URL to resolve tslab from (defaults to this file's URL)
+ */
+export function loadTslab(fromUrl: string = import.meta.url): TslabInternals {
+  const require = createRequire(fromUrl);
+  let packageJson: string;
+  try {
+    packageJson = require.resolve("tslab/package.json");
+  } catch {
+    throw new TslabPinError("tslab is not installed next to fringekit");
+  }
+  const root = path.dirname(packageJson);
+  const version = JSON.parse(readFileSync(packageJson, "utf8")).version as string;
+  if (version !== TSLAB_VERSION) throw new TslabPinError(`found tslab ${version}, need exactly ${TSLAB_VERSION}`);
+  for (const [file, want] of Object.entries(PINNED_FILES)) {
+    const got = createHash("sha256").update(readFileSync(path.join(root, file))).digest("hex");
+    if (got !== want) throw new TslabPinError(`tslab's ${file} differs from the released ${TSLAB_VERSION} (sha256 ${got})`);
+  }
+  const internals: TslabInternals = {
+    root,
+    version,
+    main: require(path.join(root, "dist/main.js")),
+    jupyter: require(path.join(root, "dist/jupyter.js")),
+    executor: require(path.join(root, "dist/executor.js")),
+    converter: require(path.join(root, "dist/converter.js")),
+    typescript: require(require.resolve("@tslab/typescript-for-tslab", { paths: [root] })),
+  };
+  checkShape(internals);
+  return internals;
+}
+
+function checkShape(t: TslabInternals): void {
+  const need = (ok: boolean, what: string) => {
+    if (!ok) throw new TslabPinError(`tslab internals changed: ${what}`);
+  };
+  need(typeof t.main.startKernel === "function", "main.startKernel is missing");
+  const server = t.jupyter.ZmqServer?.prototype;
+  need(!!server, "jupyter.ZmqServer is missing");
+  for (const method of ["init", "handleShellMessage", "close"]) {
+    need(typeof server[method] === "function", `ZmqServer.prototype.${method} is missing`);
+  }
+  const handler = t.jupyter.JupyterHandlerImpl?.prototype;
+  need(!!handler, "jupyter.JupyterHandlerImpl is missing");
+  for (const method of ["handleKernel", "handleComplete", "handleInspect", "handleIsComplete", "close"]) {
+    need(typeof handler[method] === "function", `JupyterHandlerImpl.prototype.${method} is missing`);
+  }
+  need("lastWriteDisplayData" in t.jupyter, "jupyter.lastWriteDisplayData is missing");
+  const desc = Object.getOwnPropertyDescriptor(t.executor, "createExecutor");
+  need(!!desc && typeof desc.value === "function" && desc.writable === true, "executor.createExecutor is not a replaceable function");
+  need(typeof t.converter.isCompleteCode === "function", "converter.isCompleteCode is missing");
+  need(typeof t.typescript.createWatchCompilerHost === "function", "typescript.createWatchCompilerHost is missing");
+}
