@@ -5,3 +5,5 @@ export type { Model, ParameterSpec } from "./physics/model.js";
 export type * from "./fit/types.js";
 export * from "./report/index.js";
 export * from "./stats/index.js";
+export * from "./physics/index.js";
+export * from "./random.js";

@@ -1,0 +1,57 @@
+/**
+ * Models by id, for the command line, result files and widgets.
+ */
+import { InvalidArgumentError } from "../errors.js";
+import type { Model, ParameterSpec } from "./model.js";
+import { twoSlitModel } from "./twoSlit.js";
+
+/** Options accepted by `getModel`; each model reads the ones it knows. */
+export interface ModelOptions {
+  /** Far-field models: sin θ ≈ (x − center)/distance. */
+  smallAngle?: boolean;
+  /** Gauss–Legendre nodes per pixel (default 5). */
+  pixelNodes?: number;
+  /** Gauss–Hermite nodes for blur (default 16). */
+  blurNodes?: number;
+  [option: string]: unknown;
+}
+
+/** A registry entry as listed by `listModels`. */
+export interface ModelInfo {
+  id: string;
+  description: string;
+  parameters: readonly ParameterSpec[];
+  /** Position axis: "detector" (x = detector position, m) or "separation" (x = slit separation, m). */
+  axis: "detector" | "separation";
+}
+
+interface Entry {
+  axis: "detector" | "separation";
+  create: (options: ModelOptions) => Model;
+  /** Options needed to build an example instance for listing (models that need data). */
+  example?: ModelOptions;
+}
+
+const ENTRIES: Record<string, Entry> = {
+  "two-slit": { axis: "detector", create: (o) => twoSlitModel(o) },
+};
+
+/**
+ * Builds the model with the given id.
+ * @param id      one of `listModels().map(m => m.id)`
+ * @param options model options (small-angle geometry, quadrature nodes, spectrum, ...)
+ * @example getModel("two-slit", { smallAngle: true })
+ */
+export function getModel(id: string, options: ModelOptions = {}): Model {
+  const entry = Object.hasOwn(ENTRIES, id) ? ENTRIES[id] : undefined;
+  if (!entry) throw new InvalidArgumentError("model id", id, `one of ${Object.keys(ENTRIES).join(", ")}`);
+  return entry.create(options);
+}
+
+/** All registered models: id, description, parameter specs and position axis. */
+export function listModels(): ModelInfo[] {
+  return Object.entries(ENTRIES).map(([id, entry]) => {
+    const model = entry.create(entry.example ?? {});
+    return { id, description: model.description, parameters: model.parameters, axis: entry.axis };
+  });
+}
