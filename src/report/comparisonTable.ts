@@ -1,0 +1,100 @@
+/**
+ * The table comparing several fits of the same data: χ²/ν, ln L, AIC (Akaike 1974) with
+ * Δ to the best and Akaike weights exp(−Δ/2)/Σ exp(−Δ/2) (Burnham & Anderson 2002, §2.9),
+ * and BIC (Schwarz 1978) with its Δ.
+ */
+import { InvalidArgumentError } from "../errors.js";
+import type { FitResult } from "../fit/types.js";
+import { fixed } from "./fitTable.js";
+import type { ReportTable, TableRow } from "./table.js";
+
+/** One fit in a comparison, with the label it is shown under (user text, escaped on output). */
+export interface LabelledFit {
+  label: string;
+  result: FitResult;
+}
+
+export interface ComparisonTableOptions {
+  caption?: string;
+  /** A verdict in plain words (e.g. from stats' compareFits), printed as a note. */
+  verdict?: string;
+  notes?: string[];
+}
+
+/** Numbers of one comparison row; also used by figures and results files. */
+export interface ComparisonRow {
+  label: string;
+  modelId: string;
+  k: number;
+  reducedChi2: number;
+  logLikelihood: number;
+  aic: number;
+  deltaAic: number;
+  weight: number;
+  bic: number;
+  deltaBic: number;
+}
+
+/**
+ * AIC/BIC ranking of fits to the same data, best (lowest AIC) first.
+ * Refuses fits with different point counts or noise models: their likelihoods are not comparable.
+ */
+export function rankFits(fits: readonly LabelledFit[]): ComparisonRow[] {
+  if (!Array.isArray(fits) || fits.length === 0) throw new InvalidArgumentError("fits", fits, "a non-empty list of {label, result}");
+  const first = fits[0].result;
+  for (const f of fits) {
+    if (f.result.statistics.n !== first.statistics.n || f.result.noise !== first.noise) {
+      throw new InvalidArgumentError(
+        "fits",
+        f.label,
+        `every fit must use the same data and noise model (first: n = ${first.statistics.n}, ${first.noise}; this: n = ${f.result.statistics.n}, ${f.result.noise})`,
+      );
+    }
+  }
+  const minAic = Math.min(...fits.map((f) => f.result.statistics.aic));
+  const minBic = Math.min(...fits.map((f) => f.result.statistics.bic));
+  const raw = fits.map((f) => Math.exp(-(f.result.statistics.aic - minAic) / 2));
+  const total = raw.reduce((a, b) => a + b, 0);
+  return fits
+    .map((f, i) => ({
+      label: f.label,
+      modelId: f.result.modelId,
+      k: f.result.statistics.nFree,
+      reducedChi2: f.result.statistics.reducedChi2,
+      logLikelihood: f.result.statistics.logLikelihood,
+      aic: f.result.statistics.aic,
+      deltaAic: f.result.statistics.aic - minAic,
+      weight: raw[i] / total,
+      bic: f.result.statistics.bic,
+      deltaBic: f.result.statistics.bic - minBic,
+    }))
+    .sort((a, b) => a.aic - b.aic);
+}
+
+/** Build the comparison table (one row per fit, best first). */
+export function comparisonTable(fits: readonly LabelledFit[], options: ComparisonTableOptions = {}): ReportTable {
+  const ranking = rankFits(fits);
+  const rows: TableRow[] = ranking.map((r) => ({
+    cells: [
+      r.label,
+      String(r.k),
+      fixed(r.reducedChi2, 3),
+      fixed(r.logLikelihood, 1),
+      fixed(r.aic, 1),
+      fixed(r.deltaAic, 1),
+      r.weight < 0.001 ? "< 0.001" : r.weight.toFixed(3),
+      fixed(r.bic, 1),
+      fixed(r.deltaBic, 1),
+    ],
+  }));
+  const notes = [`${fits.length} fits of the same ${fits[0].result.statistics.n} points, ${fits[0].result.noise} noise model; best AIC first.`];
+  if (options.verdict) notes.push(options.verdict);
+  notes.push(...(options.notes ?? []));
+  return {
+    caption: options.caption ?? "Model comparison",
+    columns: ["Model", "k", "χ²/ν", "ln L", "AIC", "ΔAIC", "Akaike weight", "BIC", "ΔBIC"],
+    align: ["l", "r", "r", "r", "r", "r", "r", "r", "r"],
+    rows,
+    notes,
+  };
+}

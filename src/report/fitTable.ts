@@ -1,0 +1,84 @@
+/**
+ * The table of one fit: every parameter as value ± standard uncertainty (GUM 7.2.6 rounding),
+ * fixed/tied/at-bound marks, then the fit statistics and any warnings as notes.
+ */
+import { InvalidArgumentError } from "../errors.js";
+import type { FitResult } from "../fit/types.js";
+import { formatParameter, type FormatOptions } from "./formatQuantity.js";
+import { parameterLabel, type ParameterLabel } from "./labels.js";
+import type { ReportTable, TableRow } from "./table.js";
+
+export interface FitTableOptions {
+  /** Caption; default "Fit of model <id>". User text: escaped by every renderer. */
+  caption?: string;
+  /** Name of the data (e.g. the file name), shown in the caption's note line. */
+  source?: string;
+  /** Per-parameter format options (e.g. { separation: { prefix: "m" } } to print mm). */
+  formats?: Record<string, FormatOptions>;
+  /** Format options for every parameter (style, digits). */
+  format?: FormatOptions;
+  /** Extra notes printed under the table (user text, escaped). */
+  notes?: string[];
+}
+
+const STAT_LABELS: Record<string, ParameterLabel> = {
+  n: { text: "points used n", html: "points used <i>n</i>", latex: "points used $n$" },
+  k: { text: "free parameters k", html: "free parameters <i>k</i>", latex: "free parameters $k$" },
+  chi2: { text: "χ²/ν", html: "<i>χ</i>²/<i>ν</i>", latex: "$\\chi^2/\\nu$" },
+  lnL: { text: "ln L", html: "ln <i>L</i>", latex: "$\\ln L$" },
+};
+
+const NOISE_WORDS: Record<string, string> = {
+  gaussian: "Gaussian (least squares)",
+  poisson: "Poisson (deviance)",
+  robust: "robust (outliers down-weighted)",
+};
+
+/**
+ * Build the report table of a fit. Uncertainties are the fit's standard errors (SI), rounded
+ * to two significant digits; the statistics are χ² (dimensionless), log-likelihood (nats),
+ * AIC and BIC.
+ * @param result a FitResult from the fitter (SI values)
+ */
+export function fitTable(result: FitResult, options: FitTableOptions = {}): ReportTable {
+  if (!result || !Array.isArray(result.parameters) || !result.statistics) {
+    throw new InvalidArgumentError("result", typeof result, "a FitResult with parameters and statistics");
+  }
+  const rows: TableRow[] = result.parameters.map((p) => ({
+    cells: [{ label: parameterLabel(p.name) }, { quantity: formatParameter(p, { ...options.format, ...options.formats?.[p.name] }) }],
+  }));
+  const s = result.statistics;
+  rows.push({ section: "Fit statistics" });
+  rows.push({ cells: ["noise model", NOISE_WORDS[result.noise] ?? result.noise] });
+  rows.push({ cells: [{ label: STAT_LABELS.n }, String(s.n)] });
+  rows.push({ cells: [{ label: STAT_LABELS.k }, String(s.nFree)] });
+  rows.push({ cells: [{ label: STAT_LABELS.chi2 }, `${fixed(s.chi2, 1)}/${s.dof} = ${fixed(s.reducedChi2, 3)}`] });
+  rows.push({ cells: [{ label: STAT_LABELS.lnL }, fixed(s.logLikelihood, 1)] });
+  rows.push({ cells: ["AIC", fixed(s.aic, 1)] });
+  rows.push({ cells: ["BIC", fixed(s.bic, 1)] });
+  rows.push({ cells: ["converged", result.converged ? `yes (${result.message})` : `NO: ${result.message}`] });
+
+  const notes = [
+    "Uncertainties are standard uncertainties rounded to two significant digits (JCGM 100:2008, 7.2.6)" +
+      (result.covarianceScaled ? ", scaled by the reduced χ²." : ", not scaled by the reduced χ²."),
+  ];
+  if (options.source !== undefined) notes.push(`Data: ${options.source}`);
+  for (const w of result.warnings) notes.push(`Warning (${w.code}${w.parameter ? `, ${w.parameter}` : ""}): ${w.message}`);
+  if (result.flagged.length) notes.push(`${result.flagged.length} points flagged as outliers by the robust fit.`);
+  notes.push(...(options.notes ?? []));
+  return {
+    caption: options.caption ?? `Fit of model ${result.modelId}`,
+    columns: ["Parameter", "Value"],
+    align: ["l", "l"],
+    rows,
+    notes,
+  };
+}
+
+/** Fixed decimals with a typographic minus; "∞"/"NaN" spelled out. */
+export function fixed(x: number, decimals: number): string {
+  if (Number.isNaN(x)) return "NaN";
+  if (!Number.isFinite(x)) return x > 0 ? "∞" : "−∞";
+  const text = x.toFixed(decimals);
+  return (/^-0\.?0*$/.test(text) ? text.slice(1) : text).replace("-", "\u2212");
+}

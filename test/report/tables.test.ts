@@ -1,0 +1,132 @@
+import { execFileSync } from "node:child_process";
+import { existsSync, mkdtempSync, readdirSync, rmSync, writeFileSync } from "node:fs";
+import { tmpdir } from "node:os";
+import { join } from "node:path";
+import { describe, expect, it } from "vitest";
+import { escapeHtml, escapeLatex, escapeMarkdown } from "../../src/report/escape.js";
+import { comparisonReport, fitReport } from "../../src/report/tableReport.js";
+import { rankFits } from "../../src/report/comparisonTable.js";
+import { HOSTILE, makeFitResult } from "./fixtures.js";
+
+const PDFLATEX = "/usr/bin/pdflatex";
+
+/** Compile a LaTeX document with shell escape off; returns the log. Throws with the log on failure. */
+function compileLatex(source: string): { log: string; files: string[] } {
+  const dir = mkdtempSync(join(tmpdir(), "fringekit-latex-"));
+  try {
+    writeFileSync(join(dir, "t.tex"), source);
+    try {
+      execFileSync(PDFLATEX, ["-interaction=nonstopmode", "-halt-on-error", "-no-shell-escape", "t.tex"], {
+        cwd: dir, stdio: "pipe", timeout: 120_000,
+      });
+    } catch (error) {
+      const log = existsSync(join(dir, "t.log")) ? execFileSync("cat", [join(dir, "t.log")]).toString() : String(error);
+      throw new Error(`pdflatex failed:\n${log.split("\n").filter((l) => l.startsWith("!") || l.startsWith("l.")).join("\n")}`);
+    }
+    return { log: execFileSync("cat", [join(dir, "t.log")]).toString(), files: readdirSync(dir) };
+  } finally {
+    rmSync(dir, { recursive: true, force: true });
+  }
+}
+
+describe("escapeHtml / escapeMarkdown / escapeLatex (hostile strings)", () => {
+  it("escapeHtml(s) leaves no tag or attribute break-out for any hostile string", () => {
+    for (const s of HOSTILE) {
+      const out = escapeHtml(s);
+      expect(out).not.toMatch(/[<>"']/);
+    }
+    expect(escapeHtml(`<a href="x">&`)).toBe("&lt;a href=&quot;x&quot;&gt;&amp;");
+  });
+  it("escapeMarkdown(s) keeps one table cell: no bare pipe, no line break, no raw HTML", () => {
+    for (const s of HOSTILE) {
+      const out = escapeMarkdown(s);
+      expect(out).not.toMatch(/(^|[^\\])\|/);
+      expect(out).not.toMatch(/[\n<>]/);
+    }
+  });
+  it("escapeLatex(s) leaves no unescaped special character and no raw non-ASCII", () => {
+    for (const s of HOSTILE) {
+      const out = escapeLatex(s);
+      // A user's backslash becomes \textbackslash{}, so no command of theirs survives.
+      expect(out).not.toMatch(/\\(input|write|end|begin|def|catcode)/);
+      expect(out).not.toMatch(/(^|[^\\])[$&#%_]/);
+      expect(out).not.toMatch(/[^\x20-\x7e]/);
+    }
+    expect(escapeLatex("a_b%c")).toBe("a\\_b\\%c");
+  });
+});
+
+describe("fitReport(result, options)", () => {
+  const result = makeFitResult({
+    warnings: [{ code: "at-bound", message: "visibility sits at <1>", parameter: "visibility" }],
+  });
+  const report = fitReport(result, { source: HOSTILE[0], notes: HOSTILE.slice(1) });
+
+  it("fitReport(...).toHtml() shows every parameter with GUM rounding and marks fixed ones", () => {
+    const html = report.toHtml();
+    expect(html).toContain("(500.12 ± 0.34)&nbsp;µm"); // 5.00123e-4 ± 3.41e-7 m, hand-checked
+    expect(html).toContain("0.8501 ± 0.0012");
+    expect(html).toContain("632.8&nbsp;nm <small>(fixed)</small>");
+    expect(html).toContain("(20004 ± 21)&nbsp;counts");
+    expect(html).toContain("58.3/57 = 1.023"); // χ²/ν, 58.3/57 hand-checked
+  });
+  it("fitReport(...).toHtml() escapes the hostile source, notes and warnings", () => {
+    const html = report.toHtml();
+    expect(html).not.toContain("<script");
+    expect(html).not.toContain("<img");
+    expect(html).toContain("&lt;script&gt;alert(&quot;x&quot;)&lt;/script&gt;");
+    expect(html).toContain("visibility sits at &lt;1&gt;");
+  });
+  it("fitReport(...).toMarkdown() has one table line per row with columns + 1 bare pipes", () => {
+    const lines = report.toMarkdown().split("\n").filter((l) => l.startsWith("|"));
+    expect(lines.length).toBe(2 + result.parameters.length + 9);
+    for (const l of lines) expect(l.replace(/\\\|/g, "").split("|").length - 1).toBe(3);
+    expect(report.toMarkdown()).not.toMatch(/<script/);
+  });
+  it("fitReport(...).toString() aligns the value column", () => {
+    const text = report.toString().split("\n");
+    const valueStart = text[1].indexOf("Value");
+    expect(text.find((l) => l.startsWith("separation d"))!.indexOf("(500.12")).toBe(valueStart);
+  });
+  it("fitReport(...).toMimeBundle() offers text/html, text/markdown and text/plain", () => {
+    expect(Object.keys(report.toMimeBundle()).sort()).toEqual(["text/html", "text/markdown", "text/plain"]);
+  });
+  it.skipIf(!existsSync(PDFLATEX))("fitReport(...).toLatexDocument() compiles with pdflatex, hostile strings as text", () => {
+    const { log, files } = compileLatex(report.toLatexDocument());
+    expect(log).toMatch(/Output written on t\.pdf/);
+    expect(log).not.toMatch(/runsystem|Undefined control sequence/);
+    expect(files.sort()).toEqual(["t.aux", "t.log", "t.pdf", "t.tex"]);
+  });
+  it.skipIf(!existsSync(PDFLATEX))("fitReport(...).toLatex() is a tabular that compiles inside a bare document", () => {
+    const body = report.toLatex();
+    expect(body).toMatch(/^% Fit of model two-{}slit\n\\begin\{tabular\}\{ll\}/);
+    const { log } = compileLatex(`\\documentclass{article}\n\\begin{document}\n${body}\n\\end{document}\n`);
+    expect(log).toMatch(/Output written on t\.pdf/);
+  });
+  if (!existsSync(PDFLATEX)) console.warn("SKIPPED: LaTeX compile checks (Debian texlive-latex-base not installed)");
+});
+
+describe("comparisonReport(fits, options)", () => {
+  const a = makeFitResult();
+  const b = makeFitResult({ modelId: "two-slit-fresnel", statistics: { ...a.statistics, aic: 612.5, bic: 630.0, nFree: 8 } });
+  it("rankFits orders by AIC with Akaike weights exp(-Δ/2)/Σ (Burnham & Anderson 2002, §2.9; hand-checked)", () => {
+    const rows = rankFits([{ label: "far", result: a }, { label: "near", result: b }]);
+    expect(rows.map((r) => r.label)).toEqual(["near", "far"]);
+    expect(rows[1].deltaAic).toBeCloseTo(4.0, 12);
+    // weights 1/(1+e^-2) = 0.880797 and e^-2/(1+e^-2) = 0.119203 (hand-checked)
+    expect(rows[0].weight).toBeCloseTo(0.880797, 6);
+    expect(rows[1].weight).toBeCloseTo(0.119203, 6);
+    expect(rows[1].deltaBic).toBeCloseTo(1.6, 12);
+  });
+  it("rankFits refuses fits of different point counts or noise models", () => {
+    const other = makeFitResult({ noise: "gaussian" });
+    expect(() => rankFits([{ label: "a", result: a }, { label: "b", result: other }])).toThrow(/same data and noise model/);
+  });
+  it("comparisonReport(...) renders, escapes labels and verdict, and compiles", () => {
+    const r = comparisonReport([{ label: HOSTILE[2], result: a }, { label: "near <b>", result: b }], { verdict: HOSTILE[0] });
+    expect(r.toHtml()).toContain("near &lt;b&gt;");
+    expect(r.toHtml()).not.toContain("<script");
+    expect(r.toMarkdown().split("\n").filter((l) => l.startsWith("|")).length).toBe(4);
+    if (existsSync(PDFLATEX)) expect(compileLatex(r.toLatexDocument()).log).toMatch(/Output written/);
+  });
+});
