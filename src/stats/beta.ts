@@ -5,7 +5,7 @@
  * Press et al., Numerical Recipes, 3rd ed., §6.4.
  */
 import { InvalidArgumentError } from "../errors.js";
-import { logGamma } from "./gamma.js";
+import { lnGamma } from "./gamma.js";
 
 const EPS = 1e-16;
 const TINY = 1e-300;
@@ -13,7 +13,7 @@ const MAX_ITERATIONS = 100_000;
 
 /** ln B(a, b) = ln Γ(a) + ln Γ(b) − ln Γ(a + b), a, b > 0 (A&S 6.2.2). */
 export function logBeta(a: number, b: number): number {
-  return logGamma(a) + logGamma(b) - logGamma(a + b);
+  return lnGamma(a) + lnGamma(b) - lnGamma(a + b);
 }
 
 function betaContinuedFraction(x: number, a: number, b: number): number {

@@ -16,11 +16,11 @@ const LANCZOS = [
 /**
  * ln Γ(x) for x > 0 (dimensionless). Uses the reflection formula Γ(x)Γ(1−x) = π / sin(πx)
  * (A&S 6.1.17) below x = 0.5 to keep the Lanczos sum accurate.
- * @example logGamma(5) // ≈ ln 24 = 3.178...
+ * @example lnGamma(5) // ≈ ln 24 = 3.178...
  */
-export function logGamma(x: number): number {
-  if (!(x > 0) || !Number.isFinite(x)) throw new InvalidArgumentError("x", x, "logGamma needs a finite x > 0");
-  if (x < 0.5) return Math.log(Math.PI / Math.sin(Math.PI * x)) - logGamma(1 - x);
+export function lnGamma(x: number): number {
+  if (!(x > 0) || !Number.isFinite(x)) throw new InvalidArgumentError("x", x, "lnGamma needs a finite x > 0");
+  if (x < 0.5) return Math.log(Math.PI / Math.sin(Math.PI * x)) - lnGamma(1 - x);
   const z = x - 1;
   let sum = LANCZOS[0];
   for (let i = 1; i < LANCZOS.length; i++) sum += LANCZOS[i] / (z + i);
@@ -46,7 +46,7 @@ function gammaSeries(a: number, x: number): number {
     sum += term;
     if (Math.abs(term) < Math.abs(sum) * EPS) break;
   }
-  return sum * Math.exp(-x + a * Math.log(x) - logGamma(a));
+  return sum * Math.exp(-x + a * Math.log(x) - lnGamma(a));
 }
 
 /** Continued fraction for Q(a, x), A&S 6.5.31, modified Lentz; converges fast for x > a + 1. */
@@ -67,7 +67,7 @@ function gammaContinuedFraction(a: number, x: number): number {
     h *= delta;
     if (Math.abs(delta - 1) < EPS) break;
   }
-  return Math.exp(-x + a * Math.log(x) - logGamma(a)) * h;
+  return Math.exp(-x + a * Math.log(x) - lnGamma(a)) * h;
 }
 
 /**
