@@ -75,7 +75,7 @@ export function hasMimeBundle(value: unknown): boolean {
 
 /** Options of `display`. */
 export interface DisplayOptions {
-  /** Id to update this output later with `updateDisplay`; one is made when `update` is wanted. */
+  /** Id under which `updateDisplay` can replace this output later. */
   displayId?: string;
   /** Extra display metadata (per mime type). */
   metadata?: Record<string, unknown>;
@@ -83,13 +83,19 @@ export interface DisplayOptions {
 
 /**
  * Shows `value` in the current cell's output (display_data) using its mime bundle.
- * Example: `display(fitResult)`; `const id = display(table, {displayId: "t"})`.
- * @returns the display id (pass it to updateDisplay to replace this output)
+ * Example: `display(fitResult)`; `display(table, {displayId: "table"})` then
+ * `updateDisplay("table", newTable)` replaces that output.
  */
-export function display(value: unknown, options: DisplayOptions = {}): string {
-  const displayId = options.displayId ?? randomUUID();
-  publishDisplay("display_data", value, displayId, options.metadata);
-  return displayId;
+export function display(value: unknown, options: DisplayOptions = {}): void {
+  publishDisplay("display_data", value, options.displayId ?? randomUUID(), options.metadata);
+}
+
+/**
+ * Shows Jupyter's clear_output: empties the current cell's output (`wait`: when the next
+ * output arrives, which avoids flicker in loops).
+ */
+export function clearOutput(wait = false): void {
+  requireRuntime("clearOutput").publish("clear_output", { wait });
 }
 
 /** Replaces the output shown earlier under `displayId` with `value` (update_display_data). */

@@ -8,7 +8,7 @@ export type { Serializer, TypedArray, NdArray, WireArray, DType } from "./widget
 export { removeBuffers, putBuffers } from "./widget/buffers.js";
 export type { BufferPath, SplitState } from "./widget/buffers.js";
 export { liveWidgetCount, WIDGET_CONTROL_TARGET } from "./widget/registry.js";
-export { display, updateDisplay, mimeBundleOf, hasMimeBundle, plainText, MIME_BUNDLE } from "./display.js";
+export { display, updateDisplay, clearOutput, mimeBundleOf, hasMimeBundle, plainText, MIME_BUNDLE } from "./display.js";
 export type { MimeBundle, MimeBundleProvider, DisplayContent, DisplayOptions } from "./display.js";
 export { interruptSignal } from "./interrupt.js";
 export { getRuntime, NotInKernelError } from "./runtime.js";

@@ -64,7 +64,7 @@ export class TslabPinError extends Error {
  * internals, and returns them. Throws `TslabPinError` on any mismatch.
  * @param fromUrl module URL to resolve tslab from (defaults to this file's URL)
  */
-export function loadTslab(fromUrl: string = import.meta.url): TslabInternals {
+export function loadTslab(fromUrl: string = import.meta.url, options: { resolvePackageExports?: boolean } = {}): TslabInternals {
   const require = createRequire(fromUrl);
   let packageJson: string;
   try {
@@ -79,6 +79,8 @@ export function loadTslab(fromUrl: string = import.meta.url): TslabInternals {
     const got = createHash("sha256").update(readFileSync(path.join(root, file))).digest("hex");
     if (got !== want) throw new TslabPinError(`tslab's ${file} differs from the released ${TSLAB_VERSION} (sha256 ${got})`);
   }
+  const typescriptPath = require.resolve("@tslab/typescript-for-tslab", { paths: [root] });
+  if (options.resolvePackageExports) useBundlerResolution(require, typescriptPath);
   const internals: TslabInternals = {
     root,
     version,
@@ -86,7 +88,7 @@ export function loadTslab(fromUrl: string = import.meta.url): TslabInternals {
     jupyter: require(path.join(root, "dist/jupyter.js")),
     executor: require(path.join(root, "dist/executor.js")),
     converter: require(path.join(root, "dist/converter.js")),
-    typescript: require(require.resolve("@tslab/typescript-for-tslab", { paths: [root] })),
+    typescript: require(typescriptPath),
   };
   checkShape(internals);
   return internals;
@@ -113,3 +115,31 @@ function checkShape(t: TslabInternals): void {
   need(typeof t.converter.isCompleteCode === "function", "converter.isCompleteCode is missing");
   need(typeof t.typescript.createWatchCompilerHost === "function", "typescript.createWatchCompilerHost is missing");
 }
+
+/**
+ * Makes tslab's type-checker resolve packages through package.json "exports" (TypeScript's
+ * "bundler" resolution) instead of Node10 resolution, so cells can import `fringekit`,
+ * `fringekit/kernel` and the package from inside its own folder (self-reference). tslab's
+ * converter reads compiler options only through createWatchCompilerHost, so the module it
+ * loads is swapped, before tslab loads it, for a view that adjusts those options.
+ */
+function useBundlerResolution(require: NodeJS.Require, typescriptPath: string): void {
+  const real = require(typescriptPath) as Record<string, unknown> & {
+    createWatchCompilerHost: (...args: unknown[]) => unknown;
+    ModuleResolutionKind: { Bundler: number };
+  };
+  const cached = require.cache[typescriptPath];
+  if (!cached) throw new TslabPinError("TypeScript for tslab did not load as a CommonJS module");
+  if ((real as Record<symbol, unknown>)[BUNDLER_VIEW]) return;
+  const createWatchCompilerHost = (rootFiles: unknown, compilerOptions: Record<string, unknown>, ...rest: unknown[]) =>
+    real.createWatchCompilerHost(rootFiles, { ...compilerOptions, moduleResolution: real.ModuleResolutionKind.Bundler }, ...rest);
+  cached.exports = new Proxy(real, {
+    get: (target, property) => {
+      if (property === "createWatchCompilerHost") return createWatchCompilerHost;
+      if (property === BUNDLER_VIEW) return true;
+      return target[property as string];
+    },
+  });
+}
+
+const BUNDLER_VIEW = Symbol.for("fringekit.tslab.bundlerResolution");

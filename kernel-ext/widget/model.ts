@@ -138,9 +138,9 @@ export class WidgetModel<S extends Record<string, unknown>> {
     return this.viewBundle();
   }
 
-  /** Shows a view of this model in the current cell's output; returns the display id. */
-  display(): string {
-    return display(this);
+  /** Shows a view of this model in the current cell's output. */
+  display(): void {
+    display(this);
   }
 
   /** Closes the comm; the frontend view goes away. */

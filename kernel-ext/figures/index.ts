@@ -1,0 +1,4 @@
+// Headless figure export (Node side): re-exports only.
+export * from "./exportFigure.js";
+export * from "./atomicWrite.js";
+export { setPngDpi } from "./pngDensity.js";

@@ -1,0 +1,72 @@
+/**
+ * The fringekit kernel process: `node launch.js CONNECTION_FILE` (written into the kernelspec
+ * by installKernelspec). Loads tslab 1.0.22's own server module, checks it is the pinned
+ * version, installs fringekit's message handling into it and starts tslab's startKernel.
+ */
+import { readFileSync } from "node:fs";
+import { FringekitKernel, type TslabServer } from "./server/kernel.js";
+import { loadTslab, type ExecutorConsole } from "./tslabPin.js";
+import { installRuntime } from "./runtime.js";
+import { registerWidgetControl } from "./widget/registry.js";
+import type { SendingSocket } from "./server/wire.js";
+
+const realStderr = process.stderr.write.bind(process.stderr);
+const log = (line: string) => void realStderr(`[fringekit kernel] ${line}\n`);
+
+function packageVersion(): string {
+  try {
+    return JSON.parse(readFileSync(new URL("../../package.json", import.meta.url), "utf8")).version ?? "unknown";
+  } catch {
+    return "unknown";
+  }
+}
+
+function routeStdio(kernel: FringekitKernel): void {
+  for (const name of ["stdout", "stderr"] as const) {
+    const stream = process[name];
+    const original = stream.write.bind(stream);
+    stream.write = ((chunk: unknown, encoding?: unknown, callback?: unknown) => {
+      if (!kernel.ready) return original(chunk as string, encoding as BufferEncoding, callback as () => void);
+      const text = typeof chunk === "string" ? chunk : Buffer.from(chunk as Uint8Array).toString(typeof encoding === "string" ? (encoding as BufferEncoding) : "utf8");
+      kernel.writeStream(name, text);
+      const done = typeof encoding === "function" ? encoding : callback;
+      if (typeof done === "function") queueMicrotask(() => (done as () => void)());
+      return true;
+    }) as typeof stream.write;
+  }
+}
+
+/** Starts the kernel for the Jupyter connection file `configPath`. */
+export function launch(configPath: string): void {
+  const tslab = loadTslab(import.meta.url, { resolvePackageExports: true });
+  const kernel = new FringekitKernel(tslab, log, { implementation: "fringekit", implementationVersion: packageVersion() });
+
+  const createExecutor = tslab.executor.createExecutor;
+  tslab.executor.createExecutor = (rootDir: string, convs: unknown, _console: ExecutorConsole) =>
+    createExecutor(rootDir, convs, kernel.executorConsole);
+  tslab.jupyter.ZmqServer.prototype.handleShellMessage = function (this: TslabServer, socket: SendingSocket, ...frames: Buffer[]) {
+    return kernel.handleFrames(this, socket, frames);
+  };
+  // tslab's own `display` (import { display } from "tslab") publishes through this hook.
+  tslab.jupyter.lastWriteDisplayData = (data: Record<string, unknown>, update: boolean) =>
+    kernel.publish(update ? "update_display_data" : "display_data", data);
+
+  installRuntime(kernel.runtime);
+  registerWidgetControl();
+  routeStdio(kernel);
+  // tslab's own SIGINT handler interrupts an awaiting cell; this one aborts interruptSignal().
+  process.on("SIGINT", () => kernel.interrupt());
+  tslab.main.startKernel({ configPath, enableFindLocal: false, jsKernel: false, globalVersion: tslab.version });
+}
+
+const configPath = process.argv[2];
+if (!configPath) {
+  log("usage: node launch.js CONNECTION_FILE (Jupyter passes {connection_file})");
+  process.exit(2);
+}
+try {
+  launch(configPath);
+} catch (error) {
+  log((error as Error)?.message ?? String(error));
+  process.exit(1);
+}

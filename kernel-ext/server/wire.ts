@@ -1,0 +1,133 @@
+/**
+ * Jupyter wire protocol (messaging spec 5.3, "The Wire Protocol"): frames are
+ * [identities..., "<IDS|MSG>", HMAC-SHA256 hex, header, parent_header, metadata, content,
+ * buffers...], the signature covering header, parent, metadata, content and every buffer as
+ * raw bytes. tslab signs buffers as JSON text, so the extension parses and signs itself.
+ */
+import { createHmac, randomUUID, timingSafeEqual } from "node:crypto";
+
+const DELIMITER = Buffer.from("<IDS|MSG>");
+
+/** A message header (spec 5.3). */
+export interface MessageHeader {
+  msg_id: string;
+  session: string;
+  username: string;
+  date: string;
+  msg_type: string;
+  version: string;
+  [key: string]: unknown;
+}
+
+/** A decoded message. */
+export interface WireMessage {
+  identities: Buffer[];
+  header: MessageHeader;
+  parent: Partial<MessageHeader>;
+  metadata: Record<string, unknown>;
+  content: Record<string, unknown>;
+  buffers: Buffer[];
+}
+
+/** A frame sequence that is not a valid, correctly signed message. */
+export class WireError extends Error {
+  constructor(message: string) {
+    super(message);
+    this.name = "WireError";
+  }
+}
+
+/** HMAC-SHA256 hex signature of `parts` with `key` ("" when the key is empty: signing off). */
+export function sign(key: string, parts: readonly Uint8Array[]): string {
+  if (key === "") return "";
+  const hmac = createHmac("sha256", key);
+  for (const part of parts) hmac.update(part);
+  return hmac.digest("hex");
+}
+
+/** Decodes and verifies frames; throws WireError naming the problem. */
+export function parseFrames(key: string, frames: readonly Buffer[]): WireMessage {
+  const delimiterAt = frames.findIndex((frame) => frame.equals(DELIMITER));
+  if (delimiterAt < 0) throw new WireError("message without <IDS|MSG> delimiter");
+  if (frames.length < delimiterAt + 6) throw new WireError(`message with ${frames.length - delimiterAt - 1} frames after the delimiter (need 5)`);
+  const signature = frames[delimiterAt + 1].toString("ascii");
+  const parts = frames.slice(delimiterAt + 2);
+  const expected = sign(key, parts);
+  if (key !== "") {
+    const got = Buffer.from(signature, "ascii");
+    const want = Buffer.from(expected, "ascii");
+    if (got.length !== want.length || !timingSafeEqual(got, want)) throw new WireError("message with a wrong HMAC signature");
+  }
+  const json = (index: number, name: string): Record<string, unknown> => {
+    let value: unknown;
+    try {
+      value = JSON.parse(parts[index].toString("utf8"));
+    } catch (error) {
+      throw new WireError(`${name} frame is not JSON: ${(error as Error).message}`);
+    }
+    if (value === null || typeof value !== "object" || Array.isArray(value)) throw new WireError(`${name} frame is not a JSON object`);
+    return value as Record<string, unknown>;
+  };
+  const header = json(0, "header");
+  if (typeof header.msg_type !== "string" || typeof header.msg_id !== "string") {
+    throw new WireError("header without string msg_type and msg_id");
+  }
+  return {
+    identities: frames.slice(0, delimiterAt),
+    header: header as MessageHeader,
+    parent: json(1, "parent_header"),
+    metadata: json(2, "metadata"),
+    content: json(3, "content"),
+    buffers: parts.slice(4),
+  };
+}
+
+/** A fresh header for a kernel-sent message. */
+export function makeHeader(msgType: string, session: string): MessageHeader {
+  return {
+    msg_id: randomUUID(),
+    session,
+    username: "kernel",
+    date: new Date().toISOString(),
+    msg_type: msgType,
+    version: "5.3",
+  };
+}
+
+/** Encodes and signs a message as frames. */
+export function encodeFrames(
+  key: string,
+  message: { identities?: readonly Buffer[]; header: MessageHeader; parent: Partial<MessageHeader> | Record<string, never>; metadata?: Record<string, unknown>; content: Record<string, unknown>; buffers?: readonly Buffer[] },
+): Buffer[] {
+  const parts = [
+    Buffer.from(JSON.stringify(message.header)),
+    Buffer.from(JSON.stringify(message.parent ?? {})),
+    Buffer.from(JSON.stringify(message.metadata ?? {})),
+    Buffer.from(JSON.stringify(message.content)),
+    ...(message.buffers ?? []),
+  ];
+  return [...(message.identities ?? []), DELIMITER, Buffer.from(sign(key, parts)), ...parts];
+}
+
+/** The part of a zeromq socket the sender needs. */
+export interface SendingSocket {
+  send(frames: Buffer[]): Promise<void>;
+}
+
+/**
+ * Sends frames on one socket strictly one after another: a zeromq socket accepts only one
+ * send in flight, and bursts (thousands of outputs) must not be lost or reordered.
+ */
+export class SerialSender {
+  private tail: Promise<void> = Promise.resolve();
+  constructor(
+    private readonly socket: SendingSocket,
+    private readonly onError: (error: unknown) => void,
+  ) {}
+
+  /** Queues `frames`; resolves when sent (errors go to onError, never reject). */
+  send(frames: Buffer[]): Promise<void> {
+    this.tail = this.tail.then(() => this.socket.send(frames)).catch(this.onError);
+    return this.tail;
+  }
+}
