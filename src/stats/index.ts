@@ -12,3 +12,7 @@ export * from "./fitParameters.js";
 export * from "./residualTests.js";
 export * from "./residualDiagnostics.js";
 export * from "./compareFits.js";
+export * from "./quantity.js";
+export * from "./fringeGeometry.js";
+export * from "./measuredExtrema.js";
+export * from "./coherence.js";

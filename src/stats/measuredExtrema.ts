@@ -1,0 +1,144 @@
+/**
+ * Positions of the measured maxima and minima: a weighted cubic y ≈ c0 + c1 t + c2 t² + c3 t³
+ * (t = x − x̂) fitted by linear least squares to the data within ± Λ/6 of each extremum the
+ * fit predicts; the extremum is the stationary point nearest x̂, with u from the cubic's
+ * covariance (linear propagation, GUM §5.1.2), scaled by √(χ²/ν) when the local scatter
+ * exceeds the weights.
+ */
+import { InvalidArgumentError } from "../errors.js";
+import type { FitResult } from "../fit/types.js";
+import type { Profile } from "../profile.js";
+import { requireParameter } from "./fitParameters.js";
+import type { Calibration, Quantity } from "./quantity.js";
+
+export interface Extremum {
+  kind: "maximum" | "minimum";
+  /** Fringe order: m for maxima, m + ½ for minima. */
+  order: number;
+  position: Quantity;
+  /** Points used in the local parabola. */
+  points: number;
+}
+
+/**
+ * Measured maxima and minima of `profile` near those predicted by `fit` (model with center,
+ * separation, wavelength, distance and optionally phase). Positions in m, scaled by the
+ * detector scale; u includes the pixel-pitch calibration. Extrema with fewer than 5 points or
+ * a parabola of the wrong curvature are skipped.
+ */
+export function measuredExtrema(profile: Profile, fit: FitResult, calibration: Calibration = {}): Extremum[] {
+  if (profile.x.length !== fit.model.length) {
+    throw new InvalidArgumentError("profile", `${profile.x.length} points`, `the profile the fit used (${fit.model.length} points)`);
+  }
+  const get = (name: string) => requireParameter(fit, name, "measured extrema").value;
+  const center = get("center");
+  const d = get("separation");
+  const lambda = get("wavelength");
+  const distance = get("distance");
+  const phase = fit.parameters.find((p) => p.name === "phase")?.value ?? 0;
+  const spacing = (lambda * distance) / d;
+  const half = spacing / 6;
+  const x = profile.x;
+  const xMin = x[0];
+  const xMax = x[x.length - 1];
+  const relScale = calibration.pixelPitchRelative ?? 0;
+  const out: Extremum[] = [];
+  const first = Math.floor((xMin - center) / spacing + phase / (2 * Math.PI)) * 2;
+  const last = Math.ceil((xMax - center) / spacing + phase / (2 * Math.PI)) * 2;
+  for (let twice = first; twice <= last; twice++) {
+    const order = twice / 2;
+    const s = ((order - phase / (2 * Math.PI)) * lambda) / d;
+    if (Math.abs(s) >= 1) continue;
+    const predicted = center + (distance * s) / Math.sqrt(1 - s * s);
+    if (predicted - half < xMin || predicted + half > xMax) continue;
+    const vertex = localVertex(profile, predicted, half);
+    const kind = twice % 2 === 0 ? "maximum" : "minimum";
+    if (!vertex || (kind === "maximum") !== vertex.curvature < 0) continue;
+    const value = vertex.position;
+    const uncertainty = Math.sqrt(vertex.variance + (value * relScale) ** 2);
+    out.push({ kind, order, points: vertex.points, position: { name: `${kind} ${order}`, value, uncertainty, unit: "m", note: "stationary point of a local cubic" } });
+  }
+  return out;
+}
+
+function localVertex(profile: Profile, x0: number, half: number): { position: number; variance: number; curvature: number; points: number } | undefined {
+  // Weighted cubic y ≈ Σ c_j t^j in t = (x − x0)/half: the cubic term absorbs the envelope's
+  // slope, which would otherwise shift a parabola's vertex.
+  const p = 4;
+  const normal = new Float64Array(p * p);
+  const rhs = new Float64Array(p);
+  const used: [number, number, number][] = [];
+  for (let i = 0; i < profile.x.length; i++) {
+    const t = (profile.x[i] - x0) / half;
+    if (t < -1 || t > 1 || (profile.mask && !profile.mask[i])) continue;
+    const y = profile.y[i];
+    const sigma = profile.sigma ? profile.sigma[i] : profile.counts ? Math.sqrt(Math.max(y, 1)) : 1;
+    const w = 1 / (sigma * sigma);
+    for (let a = 0; a < p; a++) {
+      rhs[a] += w * t ** a * y;
+      for (let b = 0; b < p; b++) normal[a * p + b] += w * t ** (a + b);
+    }
+    used.push([t, y, w]);
+  }
+  const n = used.length;
+  if (n < p + 3) return undefined;
+  const inverse = invert(normal, p);
+  if (!inverse) return undefined;
+  const coef = Array.from({ length: p }, (_, a) => inverse.slice(a * p, a * p + p).reduce((sum, v, b) => sum + v * rhs[b], 0));
+  let chi2 = 0;
+  for (const [t, y, w] of used) chi2 += w * (y - coef.reduce((sum, c, j) => sum + c * t ** j, 0)) ** 2;
+  // Unknown σ (a.u. data without sigma): always scale; known σ: scale only upward.
+  const known = Boolean(profile.sigma) || profile.counts;
+  const factor = known ? Math.max(1, chi2 / (n - p)) : chi2 / (n - p);
+  const root = (c: number[]) => stationaryPoint(c[1], c[2], c[3]);
+  const tStar = root(coef);
+  if (!Number.isFinite(tStar) || Math.abs(tStar) > 1) return undefined;
+  // Gradient of t* with respect to the coefficients by central differences, then gᵀ C g.
+  const gradient = coef.map((c, j) => {
+    const h = 1e-6 * Math.max(Math.abs(c), Math.sqrt(inverse[j * p + j]));
+    const up = coef.slice(); up[j] += h;
+    const down = coef.slice(); down[j] -= h;
+    return (root(up) - root(down)) / (2 * h);
+  });
+  let variance = 0;
+  for (let a = 0; a < p; a++) for (let b = 0; b < p; b++) variance += gradient[a] * inverse[a * p + b] * gradient[b];
+  const curvature = 2 * coef[2] + 6 * coef[3] * tStar;
+  return { position: x0 + tStar * half, variance: factor * variance * half * half, curvature, points: n };
+}
+
+/** Root of b + 2c t + 3d t² = 0 nearest t = 0 (NaN when none is real). */
+function stationaryPoint(b: number, c: number, d: number): number {
+  if (Math.abs(3 * d) < 1e-12 * Math.abs(c)) return -b / (2 * c);
+  const disc = c * c - 3 * d * b;
+  if (disc < 0) return NaN;
+  // Stable form of the smaller root (common practice for quadratics).
+  const q = -(c + Math.sign(c || 1) * Math.sqrt(disc));
+  const r1 = q / (3 * d);
+  const r2 = b / q;
+  return Math.abs(r1) < Math.abs(r2) ? r1 : r2;
+}
+
+/** Inverse of a small symmetric positive-definite matrix by Gauss–Jordan elimination with pivoting. */
+function invert(matrix: Float64Array, p: number): Float64Array | undefined {
+  const a = Float64Array.from(matrix);
+  const inv = new Float64Array(p * p);
+  for (let i = 0; i < p; i++) inv[i * p + i] = 1;
+  for (let col = 0; col < p; col++) {
+    let pivot = col;
+    for (let r = col + 1; r < p; r++) if (Math.abs(a[r * p + col]) > Math.abs(a[pivot * p + col])) pivot = r;
+    const value = a[pivot * p + col];
+    if (!(Math.abs(value) > 0)) return undefined;
+    for (let k = 0; k < p; k++) {
+      [a[col * p + k], a[pivot * p + k]] = [a[pivot * p + k], a[col * p + k]];
+      [inv[col * p + k], inv[pivot * p + k]] = [inv[pivot * p + k], inv[col * p + k]];
+    }
+    for (let k = 0; k < p; k++) { a[col * p + k] /= value; inv[col * p + k] /= value; }
+    for (let r = 0; r < p; r++) {
+      if (r === col) continue;
+      const f = a[r * p + col];
+      if (f === 0) continue;
+      for (let k = 0; k < p; k++) { a[r * p + k] -= f * a[col * p + k]; inv[r * p + k] -= f * inv[col * p + k]; }
+    }
+  }
+  return inv;
+}
