@@ -4,6 +4,11 @@
 import { InvalidArgumentError } from "../errors.js";
 import type { Model, ParameterSpec } from "./model.js";
 import { twoSlitModel } from "./twoSlit.js";
+import { nSlitModel, singleSlitModel } from "./nSlit.js";
+import { twoBeamModel } from "./twoBeam.js";
+import { twoSlitBroadbandModel, twoSlitSpectrumModel, type SpectrumTable } from "./broadband.js";
+import { nearFieldModel } from "./nearField.js";
+import { coherenceDiscModel, coherenceGaussianModel } from "./coherence.js";
 
 /** Options accepted by `getModel`; each model reads the ones it knows. */
 export interface ModelOptions {
@@ -13,6 +18,8 @@ export interface ModelOptions {
   pixelNodes?: number;
   /** Gauss–Hermite nodes for blur (default 16). */
   blurNodes?: number;
+  /** "two-slit-spectrum" only: the source spectrum table (wavelengths in m). */
+  spectrum?: SpectrumTable;
   [option: string]: unknown;
 }
 
@@ -34,6 +41,23 @@ interface Entry {
 
 const ENTRIES: Record<string, Entry> = {
   "two-slit": { axis: "detector", create: (o) => twoSlitModel(o) },
+  "n-slit": { axis: "detector", create: (o) => nSlitModel(o) },
+  "single-slit": { axis: "detector", create: (o) => singleSlitModel(o) },
+  "two-beam": { axis: "detector", create: (o) => twoBeamModel(o) },
+  "two-slit-broadband": { axis: "detector", create: (o) => twoSlitBroadbandModel(o) },
+  "two-slit-spectrum": {
+    axis: "detector",
+    create: (o) => {
+      if (!o.spectrum) {
+        throw new InvalidArgumentError("spectrum option", o.spectrum, 'a table { wavelengths, weights } for model "two-slit-spectrum"');
+      }
+      return twoSlitSpectrumModel(o.spectrum, o);
+    },
+    example: { spectrum: { wavelengths: [632.8e-9], weights: [1] } },
+  },
+  "two-slit-fresnel": { axis: "detector", create: (o) => nearFieldModel(o) },
+  "coherence-disc": { axis: "separation", create: () => coherenceDiscModel() },
+  "coherence-gaussian": { axis: "separation", create: () => coherenceGaussianModel() },
 };
 
 /**

@@ -4,7 +4,7 @@ import type { Model } from "../../src/physics/model.js";
 
 /**
  * For every non-integer parameter j, checks jac[:, j] against
- * (I(p + h e_j) − I(p − h e_j)) / 2h with h = step · max(|p_j|, typical_j).
+ * (I(p + h e_j) − I(p − h e_j)) / 2h with h = step · |p_j| (step · typical_j when p_j = 0).
  * Tolerance is relative to the largest |column| entry (columns can cross zero), plus the
  * rounding noise of the difference quotient, 100 ε max|I| / h.
  */
@@ -24,7 +24,7 @@ export function checkJacobian(model: Model, params: Float64Array, x: Float64Arra
   model.parameters.forEach((spec, j) => {
     if (spec.integer) return; // integer parameters are never fitted; their column is 0 by contract
     const typical = options.typical?.[spec.name] ?? (spec.unit === "m" ? 1e-4 : 1);
-    const h = step * Math.max(Math.abs(params[j]!), typical);
+    const h = step * (params[j] !== 0 ? Math.abs(params[j]!) : typical);
     const shifted = Float64Array.from(params);
     shifted[j] = params[j]! + h;
     model.evaluate(x, shifted, plus);
