@@ -8,13 +8,13 @@
  * fit of ln V_m against m² gives Δλ.
  */
 import { InvalidArgumentError } from "../errors.js";
-import type { Measured, Quantity } from "./quantity.js";
+import type { Measured, DerivedQuantity } from "./quantity.js";
 
 /**
  * |γ12| from a visibility V (1) and the beam intensity ratio r = I1/I2 (1), each ± u.
  * @example degreeOfCoherence({ value: 0.8, uncertainty: 0.01 }, { value: 1, uncertainty: 0 }) // 0.8 ± 0.01
  */
-export function degreeOfCoherence(visibility: Measured, intensityRatio: Measured): Quantity {
+export function degreeOfCoherence(visibility: Measured, intensityRatio: Measured): DerivedQuantity {
   if (!(visibility.value >= 0 && visibility.value <= 1)) throw new InvalidArgumentError("visibility", visibility.value, "a visibility between 0 and 1");
   if (!(intensityRatio.value > 0)) throw new InvalidArgumentError("intensityRatio", intensityRatio.value, "I1/I2 > 0");
   const r = intensityRatio.value;
@@ -27,7 +27,7 @@ export function degreeOfCoherence(visibility: Measured, intensityRatio: Measured
 }
 
 /** Coherence length l_c = λ²/Δλ (m) from the centre wavelength λ (m) and bandwidth Δλ (m, FWHM), each ± u. */
-export function coherenceLength(wavelength: Measured, bandwidth: Measured): Quantity {
+export function coherenceLength(wavelength: Measured, bandwidth: Measured): DerivedQuantity {
   if (!(wavelength.value > 0)) throw new InvalidArgumentError("wavelength", wavelength.value, "a positive length in m");
   if (!(bandwidth.value > 0)) throw new InvalidArgumentError("bandwidth", bandwidth.value, "a positive FWHM in m");
   const value = wavelength.value ** 2 / bandwidth.value;
@@ -43,7 +43,7 @@ export function coherenceLength(wavelength: Measured, bandwidth: Measured): Quan
  * @param visibilities V_m ± u (1)
  * @param wavelength   centre wavelength ± u (m)
  */
-export function bandwidthFromVisibilityDecay(orders: readonly number[], visibilities: readonly Measured[], wavelength: Measured): Quantity[] {
+export function bandwidthFromVisibilityDecay(orders: readonly number[], visibilities: readonly Measured[], wavelength: Measured): DerivedQuantity[] {
   if (orders.length !== visibilities.length) throw new InvalidArgumentError("visibilities", visibilities.length, `one per order (${orders.length})`);
   if (new Set(orders.map((m) => m * m)).size < 2) throw new InvalidArgumentError("orders", orders, "at least two orders with different |m|");
   if (!(wavelength.value > 0)) throw new InvalidArgumentError("wavelength", wavelength.value, "a positive length in m");

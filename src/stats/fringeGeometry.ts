@@ -6,7 +6,7 @@
  */
 import type { FitResult } from "../fit/types.js";
 import { requireParameter } from "./fitParameters.js";
-import { propagate, quantity, type Calibration, type Quantity, type Values } from "./quantity.js";
+import { propagate, quantity, type Calibration, type DerivedQuantity, type Values } from "./quantity.js";
 
 /** The fitted q in detector units (cycles per nominal metre) from the fit's own values. */
 function frequency(v: Values): number {
@@ -22,9 +22,9 @@ const distanceOf = (v: Values) => v["cal.distance"] ?? v.distance;
  * @param calibration distance ± u (m), wavelength ± u (m), separation ± u (m), pixel pitch relative u
  * @example fringeGeometry(fit, { distance: { value: 1, uncertainty: 1e-3 }, pixelPitchRelative: 1e-3 })
  */
-export function fringeGeometry(fit: FitResult, calibration: Calibration = {}): Quantity[] {
+export function fringeGeometry(fit: FitResult, calibration: Calibration = {}): DerivedQuantity[] {
   for (const name of ["separation", "wavelength", "distance"]) requireParameter(fit, name, "fringe geometry");
-  const out: Quantity[] = [
+  const out: DerivedQuantity[] = [
     quantity("fringeSpacing", propagate(fit, calibration, (v) => v.scale / frequency(v)), "m", "λL/d on the detector"),
     quantity("fringeFrequency", propagate(fit, calibration, (v) => frequency(v) / v.scale), "m^-1", "fringes per metre on the detector"),
   ];
@@ -45,12 +45,12 @@ export function fringeGeometry(fit: FitResult, calibration: Calibration = {}): Q
  * sin θ_m = (m − φ/2π) λ/d and x_m = center + L tan θ_m (exact geometry).
  * @param xMin, xMax detector range (m), e.g. the profile's first and last x
  */
-export function fringeMaxima(fit: FitResult, xMin: number, xMax: number, calibration: Calibration = {}): { order: number; position: Quantity }[] {
+export function fringeMaxima(fit: FitResult, xMin: number, xMax: number, calibration: Calibration = {}): { order: number; position: DerivedQuantity }[] {
   for (const name of ["separation", "wavelength", "distance", "center"]) requireParameter(fit, name, "fringe orders");
   const phase = fit.parameters.find((p) => p.name === "phase")?.value ?? 0;
   const v0: Record<string, number> = Object.fromEntries(fit.parameters.map((p) => [p.name, p.value]));
   const spacing = v0.wavelength * v0.distance / v0.separation;
-  const orders: { order: number; position: Quantity }[] = [];
+  const orders: { order: number; position: DerivedQuantity }[] = [];
   const mLow = Math.ceil((xMin - v0.center) / spacing + phase / (2 * Math.PI)) - 1;
   const mHigh = Math.floor((xMax - v0.center) / spacing + phase / (2 * Math.PI)) + 1;
   for (let m = mLow; m <= mHigh; m++) {

@@ -9,13 +9,13 @@ import { InvalidArgumentError } from "../errors.js";
 import type { FitResult } from "../fit/types.js";
 import type { Profile } from "../profile.js";
 import { requireParameter } from "./fitParameters.js";
-import type { Calibration, Quantity } from "./quantity.js";
+import type { Calibration, DerivedQuantity } from "./quantity.js";
 
 export interface Extremum {
   kind: "maximum" | "minimum";
   /** Fringe order: m for maxima, m + ½ for minima. */
   order: number;
-  position: Quantity;
+  position: DerivedQuantity;
   /** Points used in the local parabola. */
   points: number;
 }

@@ -7,7 +7,7 @@ import { InvalidArgumentError } from "../errors.js";
 import type { FitResult } from "../fit/types.js";
 
 /** A reported number: value ± standard uncertainty, in an SI unit. */
-export interface Quantity {
+export interface DerivedQuantity {
   name: string;
   value: number;
   /** Standard uncertainty (same unit); Infinity when it cannot be estimated. */
@@ -88,7 +88,7 @@ function checkMeasured(name: string, input: Measured): void {
   if (!(input.uncertainty >= 0)) throw new InvalidArgumentError(`calibration.${name}.uncertainty`, input.uncertainty, "a standard uncertainty >= 0 in SI units");
 }
 
-/** A Quantity from a propagated value. */
-export function quantity(name: string, result: { value: number; uncertainty: number }, unit: string, note?: string): Quantity {
+/** A DerivedQuantity from a propagated value. */
+export function quantity(name: string, result: { value: number; uncertainty: number }, unit: string, note?: string): DerivedQuantity {
   return note === undefined ? { name, ...result, unit } : { name, ...result, unit, note };
 }
