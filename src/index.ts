@@ -7,3 +7,5 @@ export * from "./report/index.js";
 export * from "./stats/index.js";
 export * from "./physics/index.js";
 export * from "./random.js";
+export * from "./io/index.js";
+export * from "./units/index.js";

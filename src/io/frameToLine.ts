@@ -1,0 +1,325 @@
+/**
+ * Camera frame → line profile: region of interest, dark subtraction, flat-field division,
+ * hot-pixel repair, saturation mask, fringe tilt measured and undone, rows averaged with a
+ * per-pixel σ.
+ */
+import { DataError, InvalidArgumentError } from "../errors.js";
+import { TOP_CODES, flaggedRanges } from "./findSaturation.js";
+import type { ImageStack } from "./imageTypes.js";
+import { measureTilt } from "./measureTilt.js";
+
+/** Rectangle in pixels (0-based column and row of the top-left corner, size). */
+export interface RegionOfInterest {
+  x: number;
+  y: number;
+  width: number;
+  height: number;
+}
+
+/** Options for frameToLine. */
+export interface FrameOptions {
+  /** File name for messages (default "frame"). */
+  source?: string;
+  /** Region of interest; default the whole frame. */
+  roi?: RegionOfInterest;
+  /** Page of a stack (1 = first) or "mean" of all pages (default). */
+  page?: number | "mean";
+  /** Dark frame (same size) subtracted before anything else. */
+  dark?: ImageStack;
+  /** Flat field (same size), divided out after normalising it to mean 1 over the ROI. */
+  flat?: ImageStack;
+  /** Fringe tilt (rad) to undo, or "auto" to measure it (default); 0 leaves rows as they are. */
+  tilt?: number | "auto";
+  /** Mask samples that involve saturated pixels (default true). */
+  maskSaturated?: boolean;
+  /** Replace isolated hot pixels by the mean of their neighbours (default true). */
+  repairHotPixels?: boolean;
+}
+
+/** A profile along the fringe normal, in pixel units. */
+export interface LineProfile {
+  /** Position along the fringe normal (pixels, same origin as the frame's columns). */
+  pixel: Float64Array;
+  /** Mean intensity over the rows (detector codes minus dark, divided by flat). */
+  y: Float64Array;
+  /** Standard uncertainty of each mean (same unit as y). */
+  sigma: Float64Array;
+  /** 1 = usable, 0 = masked (saturated, or too few rows). */
+  mask: Uint8Array;
+  /** Tilt undone (rad). */
+  tilt: number;
+  notes: string[];
+  warnings: string[];
+  /** Options used, for provenance. */
+  options: Record<string, unknown>;
+}
+
+/** Hot pixel: more than this many robust noise σ above the largest of its four neighbours. */
+export const HOT_PIXEL_THRESHOLD = 12;
+
+/**
+ * Turns a frame into a line profile. σ of each averaged sample comes from the mean square
+ * successive difference between rows (von Neumann et al. 1941, Ann. Math. Stat. 12, 153),
+ * which ignores slow changes of intensity along the fringes.
+ * @param stack   decoded image (one or more pages)
+ * @param options region, page, dark, flat, tilt, masking
+ */
+export function frameToLine(stack: ImageStack, options: FrameOptions = {}): LineProfile {
+  const source = options.source ?? "frame";
+  const roi = checkRoi(options.roi ?? { x: 0, y: 0, width: stack.width, height: stack.height }, stack);
+  const { width: w, height: h } = roi;
+  const notes: string[] = [...stack.notes];
+  const warnings: string[] = [];
+  const pages = choosePages(stack, options.page);
+  const values = new Float32Array(w * h);
+  const saturated = new Uint8Array(w * h);
+  let saturatedCount = 0;
+  const top = stack.integerCodes ? saturationCode(pages, roi, stack) : undefined;
+  for (const page of pages) {
+    for (let r = 0; r < h; r++) {
+      const from = (roi.y + r) * stack.width + roi.x;
+      for (let c = 0; c < w; c++) {
+        const v = page[from + c] as number;
+        values[r * w + c] += v / pages.length;
+        if (v === top && saturated[r * w + c] === 0) {
+          saturated[r * w + c] = 1;
+          saturatedCount++;
+        }
+      }
+    }
+  }
+  if (pages.length > 1) notes.push(`mean of ${pages.length} pages`);
+  if (options.dark) {
+    const dark = meanRoi(options.dark, roi, stack, source, "dark frame");
+    for (let i = 0; i < values.length; i++) values[i] = (values[i] as number) - (dark[i] as number);
+    notes.push("dark frame subtracted");
+  }
+  if (options.flat) {
+    const flat = meanRoi(options.flat, roi, stack, source, "flat field");
+    let sum = 0;
+    for (let i = 0; i < flat.length; i++) sum += flat[i] as number;
+    const mean = sum / flat.length;
+    if (!(mean > 0)) throw new DataError(source, "the flat field has no positive mean over the region of interest", "record the flat field with light on the detector");
+    let bad = 0;
+    for (let i = 0; i < values.length; i++) {
+      const gain = (flat[i] as number) / mean;
+      if (gain > 0.05) values[i] = (values[i] as number) / gain;
+      else if (saturated[i] === 0) {
+        saturated[i] = 2;
+        bad++;
+      }
+    }
+    notes.push("divided by the flat field (normalised to mean 1)");
+    if (bad > 0) warnings.push(`${bad} pixels with a flat-field gain below 5 % were masked`);
+  }
+  const hot = options.repairHotPixels === false ? 0 : repairHotPixels(values, w, h, saturated);
+  if (hot > 0) warnings.push(`${hot} hot pixels replaced by the mean of their neighbours`);
+  const tilt = options.tilt === undefined || options.tilt === "auto" ? refineTilt(values, saturated, roi, measureTilt(values, w, h, saturated)) : options.tilt;
+  if (!Number.isFinite(tilt) || Math.abs(tilt) >= Math.PI / 4) throw new InvalidArgumentError("tilt", tilt, "an angle in radians between −π/4 and π/4, or \"auto\"");
+  if (options.tilt === undefined || options.tilt === "auto") notes.push(`fringe tilt ${(tilt * 180 / Math.PI).toFixed(3)}° measured and undone`);
+  const line = averageRows(values, saturated, roi, tilt, options.maskSaturated !== false);
+  if (saturatedCount > 0) {
+    const cols = flaggedRanges(line.saturatedFlag).slice(0, 3).map(([a, b]) => (a === b ? `${line.pixel[a]!.toFixed(0)}` : `${line.pixel[a]!.toFixed(0)}–${line.pixel[b]!.toFixed(0)}`)).join(", ");
+    warnings.push(options.maskSaturated === false
+      ? `${saturatedCount} saturated pixels (code ${top}) at pixel ${cols}; not masked`
+      : `${saturatedCount} saturated pixels (code ${top}) masked: ${line.masked} profile samples at pixel ${cols}`);
+  }
+  const optionsUsed: Record<string, unknown> = { format: stack.format, roi, page: options.page ?? "mean", tilt, dark: options.dark !== undefined, flat: options.flat !== undefined, maskSaturated: options.maskSaturated !== false };
+  return { pixel: line.pixel, y: line.y, sigma: line.sigma, mask: line.mask, tilt, notes, warnings, options: optionsUsed };
+}
+
+/** The detector top code reached in the ROI (a plateau of ≥ 2 pixels at 255, 4095, 65535, ...). */
+function saturationCode(pages: ImageStack["pages"], roi: RegionOfInterest, stack: ImageStack): number | undefined {
+  let max = -Infinity;
+  let count = 0;
+  for (const page of pages) {
+    for (let r = 0; r < roi.height; r++) {
+      const from = (roi.y + r) * stack.width + roi.x;
+      for (let c = 0; c < roi.width; c++) {
+        const v = page[from + c] as number;
+        if (v > max) { max = v; count = 1; } else if (v === max) count++;
+      }
+    }
+  }
+  return count >= 2 && (TOP_CODES as readonly number[]).concat(stack.topCode ?? []).includes(max) ? max : undefined;
+}
+
+/**
+ * Refines a tilt estimate: the upper and lower halves of the rows, each de-tilted with the
+ * estimate, are cross-correlated; their residual shift δ over the distance Δy between the
+ * halves' centres gives the correction atan(δ / Δy). Two passes.
+ */
+function refineTilt(values: Float32Array, flags: Uint8Array, roi: RegionOfInterest, start: number): number {
+  if (roi.height < 8 || roi.width < 16) return start;
+  const half = Math.floor(roi.height / 2);
+  const top = { ...roi, height: half };
+  const bottom = { ...roi, height: half };
+  const upper = values.subarray(0, half * roi.width), lower = values.subarray((roi.height - half) * roi.width);
+  const upperFlags = flags.subarray(0, half * roi.width), lowerFlags = flags.subarray((roi.height - half) * roi.width);
+  const dy = roi.height - half;
+  let tilt = start;
+  for (let pass = 0; pass < 2; pass++) {
+    // Each half is sampled about its own centre; shift the lower one by the tilt across Δy.
+    const a = averageRows(upper, upperFlags, top, tilt, true, -dy / 2);
+    const b = averageRows(lower, lowerFlags, bottom, tilt, true, dy / 2);
+    const delta = subPixelShift(a.y, a.mask, b.y, b.mask, 4);
+    if (delta === undefined) return tilt;
+    tilt -= Math.atan(delta / dy);
+  }
+  return tilt;
+}
+
+/** Shift s (pixels) maximising Σ a(k) b(k + s) of the mean-removed profiles, to a parabola's vertex. */
+function subPixelShift(a: Float64Array, am: Uint8Array, b: Float64Array, bm: Uint8Array, range: number): number | undefined {
+  const n = a.length;
+  const mean = (y: Float64Array, m: Uint8Array): number => { let s = 0, c = 0; for (let i = 0; i < n; i++) if (m[i]) { s += y[i]!; c++; } return c > 0 ? s / c : 0; };
+  const ma = mean(a, am), mb = mean(b, bm);
+  const score: number[] = [];
+  for (let s = -range; s <= range; s++) {
+    let sum = 0, count = 0;
+    for (let k = Math.max(0, -s); k < Math.min(n, n - s); k++) {
+      if (!am[k] || !bm[k + s]) continue;
+      sum += (a[k]! - ma) * (b[k + s]! - mb);
+      count++;
+    }
+    score.push(count > 0 ? sum / count : -Infinity);
+  }
+  let best = 1;
+  for (let i = 1; i < score.length - 1; i++) if (score[i]! > score[best]!) best = i;
+  const [l, c, r] = [score[best - 1]!, score[best]!, score[best + 1]!];
+  const denominator = l - 2 * c + r;
+  if (!Number.isFinite(denominator) || denominator >= 0) return undefined;
+  return best - range + (0.5 * (l - r)) / denominator;
+}
+
+function checkRoi(roi: RegionOfInterest, stack: ImageStack): RegionOfInterest {
+  const ok = [roi.x, roi.y, roi.width, roi.height].every((v) => Number.isInteger(v)) && roi.x >= 0 && roi.y >= 0 && roi.width >= 3 && roi.height >= 1 && roi.x + roi.width <= stack.width && roi.y + roi.height <= stack.height;
+  if (!ok) throw new InvalidArgumentError("roi", `${roi.x},${roi.y},${roi.width},${roi.height}`, `x,y,width,height in whole pixels inside the ${stack.width} × ${stack.height} frame, width ≥ 3`);
+  return roi;
+}
+
+function choosePages(stack: ImageStack, page: number | "mean" | undefined): ImageStack["pages"] {
+  if (page === undefined || page === "mean") return stack.pages;
+  if (!Number.isInteger(page) || page < 1 || page > stack.pages.length) throw new InvalidArgumentError("page", page, `a page number from 1 to ${stack.pages.length}, or "mean"`);
+  return [stack.pages[page - 1]!];
+}
+
+function meanRoi(other: ImageStack, roi: RegionOfInterest, stack: ImageStack, source: string, what: string): Float32Array {
+  if (other.width !== stack.width || other.height !== stack.height) {
+    throw new DataError(source, `the ${what} is ${other.width} × ${other.height} but the frame is ${stack.width} × ${stack.height}`, `give a ${what} recorded with the same camera settings`);
+  }
+  const out = new Float32Array(roi.width * roi.height);
+  for (const page of other.pages) {
+    for (let r = 0; r < roi.height; r++) {
+      const from = (roi.y + r) * other.width + roi.x;
+      for (let c = 0; c < roi.width; c++) out[r * roi.width + c] += (page[from + c] as number) / other.pages.length;
+    }
+  }
+  return out;
+}
+
+/** Replaces isolated hot pixels; returns how many. The noise scale is the median absolute
+ * difference between vertical neighbours, i.e. along the fringes, where the pattern hardly
+ * changes (×1.4826/√2 turns it into a Gaussian σ); at least half a code step. */
+function repairHotPixels(values: Float32Array, w: number, h: number, flags: Uint8Array): number {
+  if (w < 3 || h < 3) return 0;
+  const sample: number[] = [];
+  const step = Math.max(1, Math.floor((w * (h - 1)) / 20000));
+  for (let i = 0; i + w < values.length; i += step) sample.push(Math.abs((values[i + w] as number) - (values[i] as number)));
+  sample.sort((a, b) => a - b);
+  const noise = Math.max((sample[Math.floor(sample.length / 2)] ?? 0) * 1.4826 / Math.SQRT2, 0.5);
+  const threshold = HOT_PIXEL_THRESHOLD * noise;
+  let count = 0;
+  for (let r = 1; r < h - 1; r++) {
+    for (let c = 1; c < w - 1; c++) {
+      const i = r * w + c;
+      if (flags[i] !== 0) continue;
+      const a = values[i - 1] as number, b = values[i + 1] as number, u = values[i - w] as number, d = values[i + w] as number;
+      if ((values[i] as number) - Math.max(a, b, u, d) > threshold) {
+        values[i] = (a + b + u + d) / 4;
+        count++;
+      }
+    }
+  }
+  return count;
+}
+
+interface Averaged {
+  pixel: Float64Array;
+  y: Float64Array;
+  sigma: Float64Array;
+  mask: Uint8Array;
+  saturatedFlag: Uint8Array;
+  masked: number;
+}
+
+/** Samples every row along the fringe normal u = (x − xc) cos θ + (y − yc) sin θ (linear
+ * interpolation along the row) and averages over rows. */
+function averageRows(values: Float32Array, flags: Uint8Array, roi: RegionOfInterest, tilt: number, maskSaturated: boolean, yOffset = 0): Averaged {
+  const { width: w, height: h } = roi;
+  const xc = (w - 1) / 2;
+  const yc = (h - 1) / 2 - yOffset;
+  const cos = Math.cos(tilt);
+  const sin = Math.sin(tilt);
+  const sum = new Float64Array(w);
+  const count = new Float64Array(w);
+  const diff2 = new Float64Array(w);
+  const diffCount = new Float64Array(w);
+  const previous = new Float64Array(w).fill(NaN);
+  const saturatedFlag = new Uint8Array(w);
+  for (let r = 0; r < h; r++) {
+    const shift = (r - yc) * sin;
+    const row = r * w;
+    for (let k = 0; k < w; k++) {
+      const x = xc + (k - xc - shift) / cos;
+      const c0 = Math.floor(x);
+      if (c0 < 0 || c0 > w - 1 || (c0 === w - 1 && x > c0)) {
+        previous[k] = NaN;
+        continue;
+      }
+      const t = x - c0;
+      const c1 = t > 0 ? c0 + 1 : c0;
+      if (flags[row + c0] !== 0 || flags[row + c1] !== 0) {
+        if (flags[row + c0] === 1 || flags[row + c1] === 1) saturatedFlag[k] = 1;
+        if (maskSaturated || flags[row + c0] === 2 || flags[row + c1] === 2) {
+          previous[k] = NaN;
+          continue;
+        }
+      }
+      const v = (values[row + c0] as number) * (1 - t) + (values[row + c1] as number) * t;
+      sum[k] = (sum[k] as number) + v;
+      count[k] = (count[k] as number) + 1;
+      const p = previous[k] as number;
+      if (!Number.isNaN(p)) {
+        diff2[k] = (diff2[k] as number) + (v - p) * (v - p);
+        diffCount[k] = (diffCount[k] as number) + 1;
+      }
+      previous[k] = v;
+    }
+  }
+  const pixel = new Float64Array(w);
+  const y = new Float64Array(w);
+  const sigma = new Float64Array(w);
+  const mask = new Uint8Array(w);
+  let masked = 0;
+  // Pooled noise for columns with too few row pairs to estimate their own.
+  let pooled = 0, pooledCount = 0;
+  for (let k = 0; k < w; k++) { pooled += diff2[k] as number; pooledCount += diffCount[k] as number; }
+  const pooledVar = pooledCount > 0 ? pooled / (2 * pooledCount) : 0;
+  for (let k = 0; k < w; k++) {
+    pixel[k] = roi.x + k;
+    const n = count[k] as number;
+    if (n === 0) {
+      y[k] = 0;
+      sigma[k] = Math.sqrt(Math.max(pooledVar, 1e-300)); // placeholder; the sample is masked
+      if (saturatedFlag[k]) masked++;
+      continue;
+    }
+    y[k] = (sum[k] as number) / n;
+    const variance = (diffCount[k] as number) >= 4 ? (diff2[k] as number) / (2 * (diffCount[k] as number)) : pooledVar;
+    sigma[k] = Math.sqrt(Math.max(variance, 1e-300) / n);
+    mask[k] = 1;
+    if (saturatedFlag[k] && maskSaturated) { mask[k] = 0; masked++; }
+  }
+  return { pixel, y, sigma, mask, saturatedFlag, masked };
+}

@@ -1,0 +1,3 @@
+// Unit parsing at the edges: re-exports only.
+export * from "./parseQuantity.js";
+export * from "./parseColumnHeader.js";
