@@ -48,6 +48,23 @@ export function fresnelS(x: number): number {
   return pair.s;
 }
 
+/**
+ * πx²/2 reduced modulo 2π without losing digits at large x (rad). x² is formed exactly as
+ * a double-double (Dekker splitting), so exp(iπx²/2) stays accurate to ~1e-16 for any x
+ * below 1e7, where π·x·x in plain doubles would carry a phase error of ~x²·1e-16.
+ */
+export function fresnelPhase(x: number): number {
+  if (Math.abs(x) < 64) return 0.5 * Math.PI * x * x;
+  const split = 134217729 * x; // 2^27 + 1
+  const high = split - (split - x);
+  const low = x - high;
+  const square = x * x;
+  const error = high * high - square + 2 * high * low + low * low; // x² = square + error exactly
+  const quarter = square / 4; // πx²/2 = 2π · x²/4
+  const turns = quarter - Math.floor(quarter) + error / 4;
+  return 2 * Math.PI * turns;
+}
+
 /** Σ (iπ/2)ⁿ x^{2n+1} / (n!(2n+1)), x ≥ 0: real part → C, imaginary part → S. */
 function seriesCS(x: number, out: FresnelPair): void {
   const w = 0.5 * Math.PI * x * x;
@@ -111,7 +128,7 @@ function continuedFractionCS(x: number, out: FresnelPair): void {
   const hr = fr * inv;
   const hi = -fi * inv;
   // x · exp(iπx²/2) · h
-  const phase = 0.5 * pix2;
+  const phase = fresnelPhase(x);
   const er = Math.cos(phase) * x;
   const ei = Math.sin(phase) * x;
   out.c = 0.5 - (er * hr - ei * hi);

@@ -16,7 +16,7 @@
 import type { Model } from "./model.js";
 import type { PointPattern } from "./pattern.js";
 import { detectorModel, type DetectorOptions } from "./detector.js";
-import { fresnelCS, type FresnelPair } from "./fresnelIntegrals.js";
+import { fresnelCS, fresnelPhase, type FresnelPair } from "./fresnelIntegrals.js";
 import { specs } from "./specs.js";
 
 /**
@@ -44,7 +44,7 @@ export function nearFieldPattern(): PointPattern {
         fr += sign * pair.c;
         fi += sign * pair.s;
         if (!g) continue;
-        const angle = 0.5 * Math.PI * u * u;
+        const angle = fresnelPhase(u);
         const er = Math.cos(angle);
         const ei = Math.sin(angle);
         vr += sign * er; vi += sign * ei;
