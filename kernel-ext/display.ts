@@ -37,9 +37,9 @@ export interface DisplayContent {
 
 const MIME_TYPE = /^[a-z]+\/[a-z0-9.+-]+$/i;
 
-/** Plain-text view of any value, as Node's console would print it. */
+/** Plain-text view of any value as Node's REPL shows it (strings quoted). */
 export function plainText(value: unknown): string {
-  return typeof value === "string" ? value : inspect(value, { depth: 4, colors: false });
+  return inspect(value, { depth: 4, colors: false });
 }
 
 /**
