@@ -8,6 +8,7 @@ import { InvalidArgumentError } from "../errors.js";
 import type { FitResult } from "../fit/types.js";
 import type { Profile } from "../profile.js";
 import { akaikeWeights, fitCriteria } from "./criteria.js";
+import { farFieldValidity, isFarFieldModel } from "./farField.js";
 import { profileFingerprint } from "./fingerprint.js";
 import { isNestedByParameters, nestedTest, type NestedTestResult } from "./nested.js";
 import { formatP, residualDiagnostics, type ResidualDiagnostics } from "./residualDiagnostics.js";
@@ -255,11 +256,6 @@ function nestedPairs(entries: Entry[], asserted: [string, string][]): NestedTest
   return tests;
 }
 
-/** Model ids that describe the far field only (no Fresnel term). */
-function isFarField(modelId: string): boolean {
-  return !/fresnel|near/i.test(modelId) && /slit|grating|beam/i.test(modelId);
-}
-
 function collectWarnings(rows: ModelComparisonRow[], entries: Entry[]): string[] {
   const warnings: string[] = [];
   const best = rows[0];
@@ -267,7 +263,7 @@ function collectWarnings(rows: ModelComparisonRow[], entries: Entry[]): string[]
     if (!row.converged) warnings.push(`${row.label} did not converge and is left out of the ranking`);
   }
   if (best.diagnostics.structured) {
-    const hint = isFarField(best.modelId) ? ": consider the near-field model" : ": consider a model with more physics (finite pixels, blur, bandwidth)";
+    const hint = isFarFieldModel(best.modelId) ? ": consider the near-field model" : ": consider a model with more physics (finite pixels, blur, bandwidth)";
     warnings.push(`residuals of ${best.label} still structured — ${best.diagnostics.reasons.join("; ")}${hint}`);
   }
   if (best.reducedChi2 > 1.5 && entries[0].fit.noise !== "robust") {
@@ -275,7 +271,16 @@ function collectWarnings(rows: ModelComparisonRow[], entries: Entry[]): string[]
   } else if (best.reducedChi2 < 0.5) {
     warnings.push(`reduced χ² of ${best.label} is ${best.reducedChi2.toFixed(2)}: σ seems overestimated`);
   }
-  const fitWarnings = entries.find((e) => e.label === best.label)?.fit.warnings ?? [];
+  const bestFit = entries.find((e) => e.label === best.label)!.fit;
+  if (isFarFieldModel(best.modelId)) {
+    try {
+      const validity = farFieldValidity(bestFit);
+      if (validity.warning) warnings.push(validity.warning);
+    } catch {
+      // The model lacks width/wavelength/distance: nothing to check.
+    }
+  }
+  const fitWarnings = bestFit.warnings;
   for (const w of fitWarnings) warnings.push(`${best.label}: ${w.message}`);
   return warnings;
 }

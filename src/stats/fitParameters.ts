@@ -3,13 +3,13 @@ import { InvalidArgumentError } from "../errors.js";
 import type { FitParameter, FitResult } from "../fit/types.js";
 
 /** The parameter called `name`, or undefined when the model has none. */
-export function findParameter(fit: FitResult, name: string): FitParameter | undefined {
+export function findFitParameter(fit: FitResult, name: string): FitParameter | undefined {
   return fit.parameters.find((p) => p.name === name);
 }
 
 /** The parameter called `name`; throws naming the model and what it has when missing. */
-export function requireParameter(fit: FitResult, name: string, purpose: string): FitParameter {
-  const found = findParameter(fit, name);
+export function requireFitParameter(fit: FitResult, name: string, purpose: string): FitParameter {
+  const found = findFitParameter(fit, name);
   if (!found) {
     throw new InvalidArgumentError("fit", fit.modelId,
       `${purpose} needs a parameter "${name}"; model ${fit.modelId} has ${fit.parameters.map((p) => p.name).join(", ")}`);
@@ -23,9 +23,9 @@ export function requireParameter(fit: FitResult, name: string, purpose: string):
  * fit lacks any of the three parameters.
  */
 export function fringeFrequencyOf(fit: FitResult): number | undefined {
-  const d = findParameter(fit, "separation")?.value;
-  const lambda = findParameter(fit, "wavelength")?.value;
-  const distance = findParameter(fit, "distance")?.value;
+  const d = findFitParameter(fit, "separation")?.value;
+  const lambda = findFitParameter(fit, "wavelength")?.value;
+  const distance = findFitParameter(fit, "distance")?.value;
   if (d === undefined || lambda === undefined || distance === undefined) return undefined;
   const q = d / (lambda * distance);
   return Number.isFinite(q) && q > 0 ? q : undefined;

@@ -5,8 +5,8 @@
  * Hence: fringe spacing Λ = s/q, separation d = λ q L / s, wavelength λ = d s/(q L).
  */
 import type { FitResult } from "../fit/types.js";
-import { requireParameter } from "./fitParameters.js";
-import { propagate, quantity, type Calibration, type DerivedQuantity, type Values } from "./quantity.js";
+import { requireFitParameter } from "./fitParameters.js";
+import { propagateDerived, derivedQuantity, type Calibration, type DerivedQuantity, type Values } from "./quantity.js";
 
 /** The fitted q in detector units (cycles per nominal metre) from the fit's own values. */
 function frequency(v: Values): number {
@@ -23,17 +23,17 @@ const distanceOf = (v: Values) => v["cal.distance"] ?? v.distance;
  * @example fringeGeometry(fit, { distance: { value: 1, uncertainty: 1e-3 }, pixelPitchRelative: 1e-3 })
  */
 export function fringeGeometry(fit: FitResult, calibration: Calibration = {}): DerivedQuantity[] {
-  for (const name of ["separation", "wavelength", "distance"]) requireParameter(fit, name, "fringe geometry");
+  for (const name of ["separation", "wavelength", "distance"]) requireFitParameter(fit, name, "fringe geometry");
   const out: DerivedQuantity[] = [
-    quantity("fringeSpacing", propagate(fit, calibration, (v) => v.scale / frequency(v)), "m", "λL/d on the detector"),
-    quantity("fringeFrequency", propagate(fit, calibration, (v) => frequency(v) / v.scale), "m^-1", "fringes per metre on the detector"),
+    derivedQuantity("fringeSpacing", propagateDerived(fit, calibration, (v) => v.scale / frequency(v)), "m", "λL/d on the detector"),
+    derivedQuantity("fringeFrequency", propagateDerived(fit, calibration, (v) => frequency(v) / v.scale), "m^-1", "fringes per metre on the detector"),
   ];
   if (!calibration.separation || calibration.wavelength) {
-    out.push(quantity("separation", propagate(fit, calibration, (v) => ((v["cal.wavelength"] ?? v.wavelength) * frequency(v) * distanceOf(v)) / v.scale),
+    out.push(derivedQuantity("separation", propagateDerived(fit, calibration, (v) => ((v["cal.wavelength"] ?? v.wavelength) * frequency(v) * distanceOf(v)) / v.scale),
       "m", calibration.wavelength ? "from the calibrated wavelength" : "from the fit's wavelength"));
   }
   if (calibration.separation) {
-    out.push(quantity("wavelength", propagate(fit, calibration, (v) => (v["cal.separation"] * v.scale) / (frequency(v) * distanceOf(v))),
+    out.push(derivedQuantity("wavelength", propagateDerived(fit, calibration, (v) => (v["cal.separation"] * v.scale) / (frequency(v) * distanceOf(v))),
       "m", "from the known separation"));
   }
   return out;
@@ -46,7 +46,7 @@ export function fringeGeometry(fit: FitResult, calibration: Calibration = {}): D
  * @param xMin, xMax detector range (m), e.g. the profile's first and last x
  */
 export function fringeMaxima(fit: FitResult, xMin: number, xMax: number, calibration: Calibration = {}): { order: number; position: DerivedQuantity }[] {
-  for (const name of ["separation", "wavelength", "distance", "center"]) requireParameter(fit, name, "fringe orders");
+  for (const name of ["separation", "wavelength", "distance", "center"]) requireFitParameter(fit, name, "fringe orders");
   const phase = fit.parameters.find((p) => p.name === "phase")?.value ?? 0;
   const v0: Record<string, number> = Object.fromEntries(fit.parameters.map((p) => [p.name, p.value]));
   const spacing = v0.wavelength * v0.distance / v0.separation;
@@ -59,9 +59,9 @@ export function fringeMaxima(fit: FitResult, xMin: number, xMax: number, calibra
       if (Math.abs(s) >= 1) return NaN;
       return (v.center + (v.distance * s) / Math.sqrt(1 - s * s)) * v.scale;
     };
-    const result = propagate(fit, calibration, at);
+    const result = propagateDerived(fit, calibration, at);
     if (result.value >= xMin && result.value <= xMax) {
-      orders.push({ order: m, position: quantity(`maximum ${m}`, result, "m", "predicted by the fit") });
+      orders.push({ order: m, position: derivedQuantity(`maximum ${m}`, result, "m", "predicted by the fit") });
     }
   }
   return orders;

@@ -16,3 +16,5 @@ export * from "./quantity.js";
 export * from "./fringeGeometry.js";
 export * from "./measuredExtrema.js";
 export * from "./coherence.js";
+export * from "./farField.js";
+export * from "./sourceSize.js";

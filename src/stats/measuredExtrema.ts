@@ -8,7 +8,7 @@
 import { InvalidArgumentError } from "../errors.js";
 import type { FitResult } from "../fit/types.js";
 import type { Profile } from "../profile.js";
-import { requireParameter } from "./fitParameters.js";
+import { requireFitParameter } from "./fitParameters.js";
 import type { Calibration, DerivedQuantity } from "./quantity.js";
 
 export interface Extremum {
@@ -30,7 +30,7 @@ export function measuredExtrema(profile: Profile, fit: FitResult, calibration: C
   if (profile.x.length !== fit.model.length) {
     throw new InvalidArgumentError("profile", `${profile.x.length} points`, `the profile the fit used (${fit.model.length} points)`);
   }
-  const get = (name: string) => requireParameter(fit, name, "measured extrema").value;
+  const get = (name: string) => requireFitParameter(fit, name, "measured extrema").value;
   const center = get("center");
   const d = get("separation");
   const lambda = get("wavelength");

@@ -26,7 +26,8 @@ export interface Measured {
 
 /**
  * Calibration of the bench, each an independent input with its standard uncertainty.
- * `distance`, `wavelength` and `separation` replace the fit's fixed values where given;
+ * `distance`, `wavelength`, `separation` and `sourceDistance` replace the fit's fixed values
+ * where given;
  * `pixelPitchRelative` is the relative standard uncertainty of the detector length scale
  * (e.g. 0.001 for ± 0.1 %).
  */
@@ -34,6 +35,8 @@ export interface Calibration {
   distance?: Measured;
   wavelength?: Measured;
   separation?: Measured;
+  /** Source-to-slit distance (m) of a coherence scan. */
+  sourceDistance?: Measured;
   pixelPitchRelative?: number;
 }
 
@@ -46,12 +49,12 @@ export type Values = Readonly<Record<string, number>>;
  * @param calibration independent inputs
  * @param f           the derived quantity as a function of named values (SI)
  */
-export function propagate(fit: FitResult, calibration: Calibration, f: (v: Values) => number): { value: number; uncertainty: number } {
+export function propagateDerived(fit: FitResult, calibration: Calibration, f: (v: Values) => number): { value: number; uncertainty: number } {
   const base: Record<string, number> = {};
   for (const p of fit.parameters) base[p.name] = p.value;
   base.scale = 1;
   const independent: [string, number][] = [["scale", calibration.pixelPitchRelative ?? 0]];
-  for (const key of ["distance", "wavelength", "separation"] as const) {
+  for (const key of ["distance", "wavelength", "separation", "sourceDistance"] as const) {
     const input = calibration[key];
     if (!input) continue;
     checkMeasured(key, input);
@@ -89,6 +92,6 @@ function checkMeasured(name: string, input: Measured): void {
 }
 
 /** A DerivedQuantity from a propagated value. */
-export function quantity(name: string, result: { value: number; uncertainty: number }, unit: string, note?: string): DerivedQuantity {
+export function derivedQuantity(name: string, result: { value: number; uncertainty: number }, unit: string, note?: string): DerivedQuantity {
   return note === undefined ? { name, ...result, unit } : { name, ...result, unit, note };
 }

@@ -1,6 +1,6 @@
 import { describe, expect, it } from "vitest";
 import {
-  bandwidthFromVisibilityDecay, coherenceLength, degreeOfCoherence, fringeGeometry, fringeMaxima, measuredExtrema, propagate,
+  bandwidthFromVisibilityDecay, coherenceLength, degreeOfCoherence, fringeGeometry, fringeMaxima, measuredExtrema, propagateDerived,
 } from "../../src/stats/index.js";
 import { getModel, paramVector, pixelPositions, simulateProfile } from "../../src/physics/index.js";
 import { fakeFit, seeded } from "./fakeFit.js";
@@ -11,10 +11,10 @@ const uSep = 1e-6;
 const fit = fakeFit({ modelId: "two-slit", free: ["amplitude", "center", "separation"], values: truth,
   stderr: { amplitude: 3, center: 1e-7, separation: uSep }, logLikelihood: -1, chi2: 1, n: 10 });
 
-describe("propagate and fringe geometry", () => {
-  it("propagate(fit, calibration, f) adds covariance and calibration terms in quadrature (GUM 5.1.2)", () => {
+describe("propagateDerived and fringe geometry", () => {
+  it("propagateDerived(fit, calibration, f) adds covariance and calibration terms in quadrature (GUM 5.1.2)", () => {
     // f = separation · distance_cal: u² = (L u_d)² + (d u_L)², by hand.
-    const r = propagate(fit, { distance: { value: 2, uncertainty: 0.01 } }, (v) => v.separation * v["cal.distance"]);
+    const r = propagateDerived(fit, { distance: { value: 2, uncertainty: 0.01 } }, (v) => v.separation * v["cal.distance"]);
     expectClose(r.value, 1e-3, 1e-15, "value");
     expectClose(r.uncertainty, Math.hypot(2 * uSep, 0.5e-3 * 0.01), 1e-7, "u");
   });
