@@ -18,3 +18,4 @@ export * from "./measuredExtrema.js";
 export * from "./coherence.js";
 export * from "./farField.js";
 export * from "./sourceSize.js";
+export * from "./localVisibility.js";

@@ -9,6 +9,7 @@ import { InvalidArgumentError } from "../errors.js";
 import type { FitResult } from "../fit/types.js";
 import type { Profile } from "../profile.js";
 import { requireFitParameter } from "./fitParameters.js";
+import { invertMatrix } from "./linearLeastSquares.js";
 import type { Calibration, DerivedQuantity } from "./quantity.js";
 
 export interface Extremum {
@@ -82,7 +83,7 @@ function localVertex(profile: Profile, x0: number, half: number): { position: nu
   }
   const n = used.length;
   if (n < p + 3) return undefined;
-  const inverse = invert(normal, p);
+  const inverse = invertMatrix(normal, p);
   if (!inverse) return undefined;
   const coef = Array.from({ length: p }, (_, a) => inverse.slice(a * p, a * p + p).reduce((sum, v, b) => sum + v * rhs[b], 0));
   let chi2 = 0;
@@ -116,29 +117,4 @@ function stationaryPoint(b: number, c: number, d: number): number {
   const r1 = q / (3 * d);
   const r2 = b / q;
   return Math.abs(r1) < Math.abs(r2) ? r1 : r2;
-}
-
-/** Inverse of a small symmetric positive-definite matrix by Gauss–Jordan elimination with pivoting. */
-function invert(matrix: Float64Array, p: number): Float64Array | undefined {
-  const a = Float64Array.from(matrix);
-  const inv = new Float64Array(p * p);
-  for (let i = 0; i < p; i++) inv[i * p + i] = 1;
-  for (let col = 0; col < p; col++) {
-    let pivot = col;
-    for (let r = col + 1; r < p; r++) if (Math.abs(a[r * p + col]) > Math.abs(a[pivot * p + col])) pivot = r;
-    const value = a[pivot * p + col];
-    if (!(Math.abs(value) > 0)) return undefined;
-    for (let k = 0; k < p; k++) {
-      [a[col * p + k], a[pivot * p + k]] = [a[pivot * p + k], a[col * p + k]];
-      [inv[col * p + k], inv[pivot * p + k]] = [inv[pivot * p + k], inv[col * p + k]];
-    }
-    for (let k = 0; k < p; k++) { a[col * p + k] /= value; inv[col * p + k] /= value; }
-    for (let r = 0; r < p; r++) {
-      if (r === col) continue;
-      const f = a[r * p + col];
-      if (f === 0) continue;
-      for (let k = 0; k < p; k++) { a[r * p + k] -= f * a[col * p + k]; inv[r * p + k] -= f * inv[col * p + k]; }
-    }
-  }
-  return inv;
 }

@@ -1,6 +1,6 @@
 import { describe, expect, it } from "vitest";
 import {
-  bandwidthFromVisibilityDecay, coherenceLength, degreeOfCoherence, fringeGeometry, fringeMaxima, measuredExtrema, propagateDerived,
+  bandwidthFromVisibilityDecay, coherenceLength, degreeOfCoherence, fringeGeometry, fringeMaxima, localVisibilities, measuredExtrema, propagateDerived,
 } from "../../src/stats/index.js";
 import { getModel, paramVector, pixelPositions, simulateProfile } from "../../src/physics/index.js";
 import { fakeFit, seeded } from "./fakeFit.js";
@@ -106,5 +106,27 @@ describe("coherence", () => {
     }
     // ±2u covers 95 % for a Gaussian estimate; 40 runs, allow sampling scatter.
     expect(inside / runs).toBeGreaterThan(0.85);
+  });
+});
+
+describe("localVisibilities", () => {
+  it("localVisibilities(profile, fit) → bandwidthFromVisibilityDecay recovers a seeded broadband bandwidth within its uncertainty", () => {
+    const model = getModel("two-slit-broadband");
+    const bench = { amplitude: 20000, center: 0, separation: 0.5e-3, width: 0.03e-3, visibility: 0.9, phase: 0, wavelength: 600e-9, bandwidth: 30e-9, distance: 1, background: 50 };
+    const x = pixelPositions(4096, 5.5e-6);
+    const fitLike = fakeFit({ modelId: "two-slit-broadband", free: ["amplitude"], values: bench, logLikelihood: 0, chi2: 1, n: x.length });
+    let inside = 0;
+    const seeds = 5;
+    for (let seed = 1; seed <= seeds; seed++) {
+      const profile = simulateProfile(model, paramVector(model, bench), x, { noise: "poisson", seed });
+      const local = localVisibilities(profile, { ...fitLike, model: new Float64Array(x.length) });
+      expect(local.length).toBeGreaterThan(14);
+      const [bandwidth, v0] = bandwidthFromVisibilityDecay(local.map((l) => l.order),
+        local.map((l) => ({ value: l.visibility, uncertainty: l.uncertainty })), { value: 600e-9, uncertainty: 0 });
+      if (Math.abs(bandwidth.value - 30e-9) < 2 * bandwidth.uncertainty) inside++;
+      expect(Math.abs(bandwidth.value - 30e-9)).toBeLessThan(4 * bandwidth.uncertainty);
+      expect(Math.abs(v0.value - 0.9)).toBeLessThan(4 * v0.uncertainty);
+    }
+    expect(inside).toBeGreaterThanOrEqual(4);
   });
 });
