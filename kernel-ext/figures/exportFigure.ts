@@ -60,6 +60,16 @@ export class FigureRenderer {
     throw new InvalidArgumentError("format", format, '"svg", "pdf" or "png"');
   }
 
+  /** Draw `figure` and list the traces plotly actually rendered (type and name), for checks. */
+  async renderedTraces(figure: FigureSpec): Promise<{ type: string; name: string }[]> {
+    checkFigure(figure);
+    await this.plot(figure, "svg", 1);
+    return this.browser.page.evaluate(() => {
+      const gd = (globalThis as any).document.getElementById("figure");
+      return (gd._fullData as { type: string; name: string }[]).map((t) => ({ type: t.type, name: t.name }));
+    });
+  }
+
   /** Stop Chromium and remove its temporary profile. */
   async close(): Promise<void> {
     await this.browser.close();

@@ -6,7 +6,7 @@
 import { InvalidArgumentError } from "../errors.js";
 import type { FitResult } from "../fit/types.js";
 import { fixed } from "./fitTable.js";
-import type { ReportTable, TableRow } from "./table.js";
+import type { ReportTable, ReportTableRow } from "./table.js";
 
 /** One fit in a comparison, with the label it is shown under (user text, escaped on output). */
 export interface LabelledFit {
@@ -74,7 +74,7 @@ export function rankFits(fits: readonly LabelledFit[]): ComparisonRow[] {
 /** Build the comparison table (one row per fit, best first). */
 export function comparisonTable(fits: readonly LabelledFit[], options: ComparisonTableOptions = {}): ReportTable {
   const ranking = rankFits(fits);
-  const rows: TableRow[] = ranking.map((r) => ({
+  const rows: ReportTableRow[] = ranking.map((r) => ({
     cells: [
       r.label,
       String(r.k),

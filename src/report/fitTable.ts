@@ -6,7 +6,7 @@ import { InvalidArgumentError } from "../errors.js";
 import type { FitResult } from "../fit/types.js";
 import { formatParameter, type FormatOptions } from "./formatQuantity.js";
 import { parameterLabel, type ParameterLabel } from "./labels.js";
-import type { ReportTable, TableRow } from "./table.js";
+import type { ReportTable, ReportTableRow } from "./table.js";
 
 export interface FitTableOptions {
   /** Caption; default "Fit of model <id>". User text: escaped by every renderer. */
@@ -44,7 +44,7 @@ export function fitTable(result: FitResult, options: FitTableOptions = {}): Repo
   if (!result || !Array.isArray(result.parameters) || !result.statistics) {
     throw new InvalidArgumentError("result", typeof result, "a FitResult with parameters and statistics");
   }
-  const rows: TableRow[] = result.parameters.map((p) => ({
+  const rows: ReportTableRow[] = result.parameters.map((p) => ({
     cells: [{ label: parameterLabel(p.name) }, { quantity: formatParameter(p, { ...options.format, ...options.formats?.[p.name] }) }],
   }));
   const s = result.statistics;

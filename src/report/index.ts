@@ -9,3 +9,4 @@ export * from "./tableText.js";
 export * from "./fitTable.js";
 export * from "./comparisonTable.js";
 export * from "./tableReport.js";
+export * from "./figures/index.js";

@@ -8,17 +8,17 @@ import { typographicMinus, type FormattedQuantity } from "./formatQuantity.js";
 import type { ParameterLabel } from "./labels.js";
 
 /** One cell: plain text (escaped on output), a formatted quantity, or a parameter label (pre-escaped per format). */
-export type TableCell = string | { quantity: FormattedQuantity } | { label: ParameterLabel };
+export type ReportTableCell = string | { quantity: FormattedQuantity } | { label: ParameterLabel };
 
 /** A data row, or a section heading spanning the whole width. */
-export type TableRow = { cells: TableCell[] } | { section: string };
+export type ReportTableRow = { cells: ReportTableCell[] } | { section: string };
 
 export interface ReportTable {
   caption: string;
   columns: string[];
   /** "l" or "r" per column (LaTeX and HTML alignment). */
   align: ("l" | "r")[];
-  rows: TableRow[];
+  rows: ReportTableRow[];
   /** Footnotes printed under the table (warnings, the rounding rule, the data source). */
   notes: string[];
 }
@@ -88,7 +88,7 @@ export function tableToLatexDocument(table: ReportTable): string {
   ].join("\n");
 }
 
-function cellHtml(cell: TableCell): string {
+function cellHtml(cell: ReportTableCell): string {
   if (typeof cell === "string") return escapeHtml(cell);
   if ("label" in cell) return cell.label.html;
   const q = cell.quantity;
@@ -101,13 +101,13 @@ function cellHtml(cell: TableCell): string {
   return q.note === null ? core : `${core} <small>(${escapeHtml(q.note)})</small>`;
 }
 
-function cellMarkdown(cell: TableCell): string {
+function cellMarkdown(cell: ReportTableCell): string {
   if (typeof cell === "string") return escapeMarkdown(cell);
   if ("label" in cell) return escapeMarkdown(cell.label.text);
   return escapeMarkdown(cell.quantity.text);
 }
 
-function cellLatex(cell: TableCell): string {
+function cellLatex(cell: ReportTableCell): string {
   if (typeof cell === "string") return escapeLatex(cell);
   if ("label" in cell) return cell.label.latex;
   const q = cell.quantity;

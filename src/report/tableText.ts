@@ -1,9 +1,9 @@
 /** Plain-text rendering of a report table, columns padded for a monospace terminal. */
-import type { ReportTable, TableCell } from "./table.js";
+import type { ReportTable, ReportTableCell } from "./table.js";
 
 /** Render `table` as aligned plain text (for `text/plain` display and the command line). */
 export function tableToText(table: ReportTable): string {
-  const text = (c: TableCell) => (typeof c === "string" ? c : "label" in c ? c.label.text : c.quantity.text);
+  const text = (c: ReportTableCell) => (typeof c === "string" ? c : "label" in c ? c.label.text : c.quantity.text);
   const body = table.rows.map((r) => ("section" in r ? null : r.cells.map(text)));
   const widths = table.columns.map((c, i) =>
     Math.max([...c].length, ...body.map((cells) => (cells ? [...(cells[i] ?? "")].length : 0))),

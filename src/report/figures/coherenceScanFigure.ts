@@ -1,0 +1,73 @@
+/**
+ * Coherence scan: fringe visibility against slit separation, the fitted coherence curve
+ * (e.g. |2J₁(v)/v| for a uniform disc source, van Cittert–Zernike) and its confidence band.
+ */
+import { InvalidArgumentError } from "../../errors.js";
+import type { FitResult } from "../../fit/types.js";
+import type { Model } from "../../physics/model.js";
+import type { Profile } from "../../profile.js";
+import { lengthAxis } from "./axes.js";
+import { confidenceBand } from "./confidenceBand.js";
+import { plainArray, plotlyText, STATIC_CONFIG, withMimeBundle, type FigureSpec } from "./figureSpec.js";
+import { axisStyle, baseLayout, baseLegend, resolveSize, type FigureSize } from "./journal.js";
+import { BAND_FILL, INK, seriesStyle } from "./palette.js";
+
+export interface CoherenceScanFigureOptions extends FigureSize {
+  /** Confidence level of the band (default 0.95). */
+  level?: number;
+  /** Points of the drawn curve (default 300). */
+  curvePoints?: number;
+  modelLabel?: string;
+}
+
+/**
+ * Figure of a coherence scan: measured visibilities (with σ as error bars when known),
+ * fitted curve from zero to beyond the largest separation, and its delta-method band.
+ * Default size: single column (85 mm) × 60 mm.
+ * @param scan   Profile with x = slit separation (m), y = visibility (1)
+ * @param result the fit of `model` to the scan
+ * @param model  the coherence model (coherence-disc, coherence-gaussian, ...)
+ */
+export function coherenceScanFigure(scan: Profile, result: FitResult, model: Model, options: CoherenceScanFigureOptions = {}): FigureSpec {
+  if (scan.x.length === 0) throw new InvalidArgumentError("scan", "no points", "a coherence scan with at least one separation");
+  const size = resolveSize(options, 60);
+  const count = options.curvePoints ?? 300;
+  if (!Number.isInteger(count) || count < 10 || count > 100_000) throw new InvalidArgumentError("curvePoints", count, "an integer from 10 to 100000");
+  let largest = 0;
+  for (const v of scan.x) largest = Math.max(largest, v);
+  const grid = new Float64Array(count);
+  for (let i = 0; i < count; i++) grid[i] = (1.08 * largest * i) / (count - 1);
+  const band = confidenceBand(model, result, grid, options.level ?? 0.95);
+  const axis = lengthAxis(grid, "Slit separation", "d");
+  const xs = plainArray(grid, axis.scale);
+  const style = seriesStyle(0);
+  const percent = `${Math.round(band.level * 1000) / 10} %`;
+
+  const data: Record<string, unknown>[] = [
+    {
+      type: "scatter", mode: "lines", x: xs, y: plainArray(band.lower), line: { width: 0 },
+      hoverinfo: "skip", showlegend: false, name: "band lower",
+    },
+    {
+      type: "scatter", mode: "lines", x: xs, y: plainArray(band.upper), line: { width: 0 },
+      fill: "tonexty", fillcolor: BAND_FILL, name: `${percent} confidence band`,
+    },
+    {
+      type: "scatter", mode: "lines", x: xs, y: plainArray(band.center),
+      line: { color: style.color, width: 1.2, dash: style.dash }, name: plotlyText(options.modelLabel ?? `${result.modelId} fit`),
+    },
+    {
+      type: "scatter", mode: "markers", name: "measured", x: plainArray(scan.x, axis.scale), y: plainArray(scan.y),
+      marker: { color: INK, size: 4.5, symbol: "circle" },
+      ...(scan.sigma ? { error_y: { type: "data", array: plainArray(scan.sigma), color: INK, thickness: 0.75, width: 2 } } : {}),
+    },
+  ];
+  const layout = {
+    ...baseLayout(size, { kind: "coherence-scan", modelId: result.modelId, level: band.level, xUnit: axis.unit }),
+    xaxis: axisStyle(axis.title, { rangemode: "tozero" }),
+    yaxis: axisStyle("Visibility <i>V</i>", { rangemode: "tozero" }),
+    // Visibility falls with separation, so the upper right corner is free for the legend.
+    legend: { ...(baseLegend(size)), orientation: "v", x: 1, xanchor: "right", y: 1, yanchor: "top", bgcolor: "rgba(255,255,255,0.8)" },
+  };
+  return withMimeBundle({ data, layout, config: { ...STATIC_CONFIG } });
+}

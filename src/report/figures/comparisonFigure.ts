@@ -1,0 +1,74 @@
+/**
+ * Several models fitted to the same profile, overlaid on the data, with each model's
+ * normalised residuals in the panel below (one colour, dash and marker per model).
+ */
+import { InvalidArgumentError } from "../../errors.js";
+import type { Profile } from "../../profile.js";
+import type { LabelledFit } from "../comparisonTable.js";
+import { intensityTitle, lengthAxis } from "./axes.js";
+import { plainArray, plotlyText, STATIC_CONFIG, withMimeBundle, type FigureSpec } from "./figureSpec.js";
+import { symmetricLimit } from "./fitFigure.js";
+import { axisStyle, baseLayout, resolveSize, type FigureSize } from "./journal.js";
+import { EXCLUDED, GUIDE, INK, seriesStyle } from "./palette.js";
+
+/**
+ * Comparison figure of up to four fits (more would not stay readable in print).
+ * Default size: double column (180 mm) × 80 mm.
+ * @param profile the profile all fits were made to (x in m)
+ * @param fits    labelled FitResults of that profile
+ */
+export function comparisonFigure(profile: Profile, fits: readonly LabelledFit[], options: FigureSize = {}): FigureSpec {
+  if (!Array.isArray(fits) || fits.length < 1 || fits.length > 4) {
+    throw new InvalidArgumentError("fits", Array.isArray(fits) ? `${fits.length} fits` : fits, "1 to 4 labelled fits of the same profile");
+  }
+  for (const f of fits) {
+    if (f.result.model.length !== profile.x.length) {
+      throw new InvalidArgumentError("fits", f.label, `fits of this profile (${profile.x.length} points), not of another one`);
+    }
+  }
+  const size = resolveSize(options, 80, "double");
+  const axis = lengthAxis(profile.x, "Position", "x");
+  const used: number[] = [];
+  const excluded: number[] = [];
+  for (let i = 0; i < profile.x.length; i++) (profile.mask && profile.mask[i] === 0 ? excluded : used).push(i);
+  const pick = (values: ArrayLike<number>, idx: number[], scale = 1) => plainArray(idx.map((i) => values[i]), scale);
+  const markerPx = profile.x.length > 500 ? 2 : 3.5;
+  const data: Record<string, unknown>[] = [
+    {
+      type: "scatter", mode: "markers", name: "data", x: pick(profile.x, used, axis.scale), y: pick(profile.y, used),
+      marker: { color: INK, size: markerPx, line: { width: 0 } }, xaxis: "x", yaxis: "y",
+    },
+  ];
+  if (excluded.length) {
+    data.push({
+      type: "scatter", mode: "markers", name: "excluded", x: pick(profile.x, excluded, axis.scale), y: pick(profile.y, excluded),
+      marker: { color: EXCLUDED, size: markerPx + 1.5, symbol: "x-thin-open", line: { width: 0.8, color: EXCLUDED } }, xaxis: "x", yaxis: "y",
+    });
+  }
+  let limit = 3;
+  fits.forEach((f, i) => {
+    const style = seriesStyle(i);
+    // All points, NaN (→ gap) where masked, so the residual line breaks over excluded regions.
+    const residuals = plainArray(f.result.residuals);
+    limit = Math.max(limit, symmetricLimit(residuals));
+    data.push({
+      type: "scatter", mode: "lines", name: plotlyText(f.label), legendgroup: `m${i}`,
+      x: plainArray(profile.x, axis.scale), y: plainArray(f.result.model),
+      line: { color: style.color, width: 1.2, dash: style.dash }, xaxis: "x", yaxis: "y",
+    });
+    data.push({
+      type: "scatter", mode: "lines", name: `${plotlyText(f.label)} residuals`, legendgroup: `m${i}`, showlegend: false,
+      x: plainArray(profile.x, axis.scale), y: residuals,
+      line: { color: style.color, width: 0.8, dash: style.dash }, xaxis: "x2", yaxis: "y2",
+    });
+  });
+  const layout = {
+    ...baseLayout(size, { kind: "comparison", models: fits.map((f) => f.result.modelId), xUnit: axis.unit }),
+    xaxis: axisStyle("", { domain: [0, 1], anchor: "y", matches: "x2", showticklabels: false, title: undefined }),
+    yaxis: axisStyle(intensityTitle(profile.yUnit), { domain: [0.36, 1], anchor: "x", rangemode: "tozero" }),
+    xaxis2: axisStyle(axis.title, { domain: [0, 1], anchor: "y2" }),
+    yaxis2: axisStyle("(<i>I</i>−<i>f</i>)/<i>σ</i>", { domain: [0, 0.28], anchor: "x2", range: [-limit, limit], nticks: 5 }),
+    shapes: [{ type: "line", xref: "x2 domain", x0: 0, x1: 1, yref: "y2", y0: 0, y1: 0, line: { color: GUIDE, width: 0.75 } }],
+  };
+  return withMimeBundle({ data, layout, config: { ...STATIC_CONFIG } });
+}

@@ -1,0 +1,34 @@
+/**
+ * The fringekit figure palette. Colours differ in lightness as well as hue, so the curves stay
+ * apart in greyscale print, and the hues (navy, vermilion, teal, ochre) avoid the red–green
+ * pairs that colour-blind readers confuse; each series also gets its own dash pattern and
+ * marker, so no information rests on colour alone.
+ * CIE L* (approximate, computed from sRGB): ink 21, navy 27, vermilion 52, teal 67, ochre 80.
+ */
+
+/** Data points and text. */
+export const INK = "#2b2b2b";
+/** Points excluded from the fit (mask = 0). */
+export const EXCLUDED = "#a8a8a8";
+/** Model curves in order of use, dark to light. */
+export const SERIES = ["#143d73", "#c0502e", "#3e9e97", "#d9a93b"] as const;
+/** Dash pattern per series (plotly names), for greyscale and colour-blind readers. */
+export const SERIES_DASH = ["solid", "dash", "dot", "dashdot"] as const;
+/** Marker symbol per series (plotly names). */
+export const SERIES_MARKER = ["circle", "square", "diamond", "triangle-up"] as const;
+/** Fill of confidence bands: the first series colour, translucent. */
+export const BAND_FILL = "rgba(20, 61, 115, 0.18)";
+/** Reference lines (zero residual, Δχ² thresholds). */
+export const GUIDE = "#7a7a7a";
+/** Diverging scale for correlations: −1 navy, 0 near-white, +1 vermilion (lightness symmetric). */
+export const DIVERGING: [number, string][] = [
+  [0, "#143d73"],
+  [0.5, "#f4f4f4"],
+  [1, "#a8401f"],
+];
+
+/** Colour, dash and marker of series `i` (wraps around after four). */
+export function seriesStyle(i: number): { color: string; dash: string; marker: string } {
+  const k = ((i % SERIES.length) + SERIES.length) % SERIES.length;
+  return { color: SERIES[k], dash: SERIES_DASH[k], marker: SERIES_MARKER[k] };
+}
