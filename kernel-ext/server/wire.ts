@@ -1,8 +1,9 @@
 /**
  * Jupyter wire protocol (messaging spec 5.3, "The Wire Protocol"): frames are
  * [identities..., "<IDS|MSG>", HMAC-SHA256 hex, header, parent_header, metadata, content,
- * buffers...], the signature covering header, parent, metadata, content and every buffer as
- * raw bytes. tslab signs buffers as JSON text, so the extension parses and signs itself.
+ * buffers...]. The HMAC covers exactly the four JSON frames (header, parent_header, metadata,
+ * content), never the buffers, which travel as raw bytes. tslab signs its extra frames as JSON
+ * text, so binary buffers break its HMAC; the extension parses and signs messages itself.
  */
 import { createHmac, randomUUID, timingSafeEqual } from "node:crypto";
 
@@ -37,7 +38,7 @@ export class WireError extends Error {
   }
 }
 
-/** HMAC-SHA256 hex signature of `parts` with `key` ("" when the key is empty: signing off). */
+/** HMAC-SHA256 hex signature of `parts` (the four JSON frames) with `key`; "" when the key is empty (signing off). */
 export function sign(key: string, parts: readonly Uint8Array[]): string {
   if (key === "") return "";
   const hmac = createHmac("sha256", key);
@@ -52,7 +53,7 @@ export function parseFrames(key: string, frames: readonly Buffer[]): WireMessage
   if (frames.length < delimiterAt + 6) throw new WireError(`message with ${frames.length - delimiterAt - 1} frames after the delimiter (need 5)`);
   const signature = frames[delimiterAt + 1].toString("ascii");
   const parts = frames.slice(delimiterAt + 2);
-  const expected = sign(key, parts);
+  const expected = sign(key, parts.slice(0, 4));
   if (key !== "") {
     const got = Buffer.from(signature, "ascii");
     const want = Buffer.from(expected, "ascii");
@@ -106,7 +107,7 @@ export function encodeFrames(
     Buffer.from(JSON.stringify(message.content)),
     ...(message.buffers ?? []),
   ];
-  return [...(message.identities ?? []), DELIMITER, Buffer.from(sign(key, parts)), ...parts];
+  return [...(message.identities ?? []), DELIMITER, Buffer.from(sign(key, parts.slice(0, 4))), ...parts];
 }
 
 /** The part of a zeromq socket the sender needs. */
