@@ -122,6 +122,7 @@ export function farFieldCheck(geometry: { width: number; separation?: number; sl
   if (!Number.isInteger(slits) || slits < 1) throw new InvalidArgumentError("slits", slits, "an integer ≥ 1");
   if (!(separation >= 0)) throw new InvalidArgumentError("separation", separation, "a length ≥ 0 in m");
   positive("limit", limit);
+  positive("width", geometry.width);
   const fresnel = fresnelNumber(geometry.width, geometry.wavelength, geometry.distance);
   const offsetNumber = ((slits - 1) * separation * geometry.width) / (geometry.wavelength * geometry.distance);
   const valid = fresnel < limit && offsetNumber < limit;
