@@ -2,7 +2,7 @@
 export * from "./errors.js";
 export type { Profile, Provenance } from "./profile.js";
 export type { Model, ParameterSpec } from "./physics/model.js";
-export type * from "./fit/types.js";
+export * from "./fit/index.js";
 export * from "./report/index.js";
 export * from "./stats/index.js";
 export * from "./physics/index.js";

@@ -90,3 +90,42 @@ export interface FitResult {
   /** Indices flagged as outliers by the robust loss (empty otherwise). */
   flagged: number[];
 }
+
+/** Progress of a running fit, reported once per solver iteration. */
+export interface FitProgress {
+  iteration: number;
+  evaluations: number;
+  /** Current value of the minimised objective (see FitStatistics.objective). */
+  objective: number;
+}
+
+/** Options of fitProfile (all optional; names are model parameter names). */
+export interface FitOptions {
+  /** Starting values (SI); parameters not given start from the automatic start or the model default. */
+  start?: Record<string, number>;
+  /** Parameters held fixed: name → value (SI), or names held at their start/default value. */
+  fix?: Record<string, number> | string[];
+  /** Parameters that are fixedByDefault in the model but should be fitted. */
+  free?: string[];
+  /** Parameters tied to others: name → expression of other parameter names, e.g. { width: "separation/5" }. */
+  tie?: Record<string, string>;
+  /** Bounds (SI) replacing the model's physical bounds: name → [lower, upper]. */
+  bounds?: Record<string, [number, number]>;
+  /** Noise model; "auto" (default) is poisson for integer counts, gaussian otherwise. */
+  noise?: NoiseModelId | "auto";
+  /** Treat σ as absolute (covariance not scaled by the reduced χ²). Default false; Poisson is never scaled. */
+  sigmaAbsolute?: boolean;
+  /** Robust loss scale in units of σ (soft-L1 loss; default 2). */
+  robustScale?: number;
+  /** Limit on model evaluations (default 200·(nFree + 1) per start). */
+  maxEvaluations?: number;
+  /** Find starting values from the data (default: true unless start gives every free parameter). */
+  autoStart?: boolean;
+  /** Relative stopping tolerance on objective, step and gradient (default 1e-10; 1e-15 for reference-grade digits). */
+  tolerance?: number;
+  /** Use geodesic acceleration in the solver (default false for profile fits). */
+  geodesic?: boolean;
+  onProgress?: (progress: FitProgress) => void;
+  /** Checked once per iteration; the fit returns with reason "cancelled" when aborted. */
+  signal?: { readonly aborted: boolean };
+}

@@ -1,0 +1,95 @@
+// B1 of ../shared/bench/PROBLEMS.md: one camera line, finite-width two-slit, Poisson counts.
+// fringekit and SciPy least_squares(method="lm") fit the same data, model and start in the same
+// run; both minimise χ² with σ = √max(y, 1) so the timings compare like with like.
+import { spawnSync } from "node:child_process";
+import { existsSync } from "node:fs";
+import { dirname, join } from "node:path";
+import { fileURLToPath } from "node:url";
+import { fitProfile } from "../src/fit/fitProfile.js";
+import type { FitResult } from "../src/fit/types.js";
+import { getModel, pixelPositions, simulateProfile, type SimulatedProfile } from "../src/physics/index.js";
+
+export const PYTHON = "/usr/bin/python3";
+const SCRIPT = join(dirname(fileURLToPath(import.meta.url)), "reference", "two_slit_scipy.py");
+
+/** B1 truth (SI). */
+export const B1_TRUTH = {
+  amplitude: 20000, background: 150, center: 0.37e-3, separation: 0.5e-3, width: 0.1e-3,
+  visibility: 0.85, phase: 0.3, wavelength: 632.8e-9, distance: 1, pixelWidth: 5.5e-6,
+} as const;
+/** B1 start (SI). */
+export const B1_START = { amplitude: 18000, background: 100, center: 0.3e-3, separation: 0.497e-3, width: 0.11e-3, visibility: 0.7, phase: 0 };
+export const B1_FIX = { wavelength: 632.8e-9, distance: 1, pixelWidth: 5.5e-6 };
+
+/** The B1 profile: 4096 pixels of 5.5 µm, Poisson counts from a seeded stream. */
+export function b1Profile(seed = 1, pixels = 4096): SimulatedProfile {
+  return simulateProfile(getModel("two-slit"), B1_TRUTH, pixelPositions(pixels, 5.5e-6), { noise: "poisson", seed });
+}
+
+/** fringekit's B1 fit (gaussian χ² with σ from counts, the objective the SciPy reference uses). */
+export function fitB1(profile: SimulatedProfile, noise: "gaussian" | "poisson" = "gaussian"): FitResult {
+  return fitProfile(profile, getModel("two-slit"), { noise, fix: B1_FIX, start: B1_START });
+}
+
+export interface ScipyOutcome {
+  values: Record<string, number>;
+  stderr: Record<string, number>;
+  chi2: number;
+  nfev: number;
+  status: number;
+  median_ms: number;
+}
+
+/** True when /usr/bin/python3 with SciPy is available. */
+export function scipyAvailable(): boolean {
+  if (!existsSync(PYTHON)) return false;
+  return spawnSync(PYTHON, ["-c", "import scipy.optimize, numpy"], { stdio: "ignore" }).status === 0;
+}
+
+/** Runs the SciPy reference on a profile; `repeats` timed fits after one warm-up. */
+export function runScipy(profile: SimulatedProfile, repeats = 10): ScipyOutcome {
+  const sigma = Array.from(profile.y, (v) => Math.sqrt(Math.max(v, 1)));
+  const job = JSON.stringify({ x: Array.from(profile.x), y: Array.from(profile.y), sigma, start: B1_START, fixed: B1_FIX, repeats });
+  const run = spawnSync(PYTHON, [SCRIPT], { input: job, encoding: "utf8", maxBuffer: 1 << 26 });
+  if (run.status !== 0) throw new Error(`SciPy reference failed: ${run.stderr}`);
+  return JSON.parse(run.stdout) as ScipyOutcome;
+}
+
+function median(values: number[]): number {
+  const s = [...values].sort((a, b) => a - b);
+  return s[Math.floor(s.length / 2)];
+}
+
+export async function main(): Promise<void> {
+  const profile = b1Profile(1);
+  const repeats = 15;
+  fitB1(profile); fitB1(profile); // warm-up
+  const times: number[] = [];
+  let result = fitB1(profile);
+  for (let i = 0; i < repeats; i++) {
+    const t0 = performance.now();
+    result = fitB1(profile);
+    times.push(performance.now() - t0);
+  }
+  const poissonTimes: number[] = [];
+  let poisson = fitB1(profile, "poisson");
+  for (let i = 0; i < 5; i++) {
+    const t0 = performance.now();
+    poisson = fitB1(profile, "poisson");
+    poissonTimes.push(performance.now() - t0);
+  }
+  const ours = median(times);
+  const line = (r: FitResult): string => r.parameters.filter((p) => !p.fixed)
+    .map((p) => `${p.name} ${((p.value - B1_TRUTH[p.name as keyof typeof B1_TRUTH]) / p.stderr).toFixed(2)}σ`).join(", ");
+  process.stdout.write(`fringekit gaussian (σ = √counts): ${result.reason}, ${result.evaluations} evaluations + ${result.jacobianEvaluations} Jacobians, reduced χ² ${result.statistics.reducedChi2.toFixed(4)}, median ${ours.toFixed(1)} ms over ${repeats}\n`);
+  process.stdout.write(`  deviation from truth: ${line(result)}\n`);
+  process.stdout.write(`fringekit poisson: ${poisson.reason}, reduced χ² ${poisson.statistics.reducedChi2.toFixed(4)}, median ${median(poissonTimes).toFixed(1)} ms over 5\n`);
+  process.stdout.write(`  deviation from truth: ${line(poisson)}\n`);
+  if (!scipyAvailable()) {
+    process.stdout.write(`B1 fringekit/scipy time ratio unavailable: SciPy not installed for ${PYTHON} (fringekit ${ours.toFixed(1)} ms)\n`);
+    return;
+  }
+  const scipy = runScipy(profile, repeats);
+  process.stdout.write(`scipy least_squares(method="lm"): status ${scipy.status}, ${scipy.nfev} evaluations, χ² ${scipy.chi2.toFixed(2)} (fringekit ${result.statistics.chi2.toFixed(2)}), median ${scipy.median_ms.toFixed(1)} ms over ${repeats}\n`);
+  process.stdout.write(`B1 fringekit/scipy time ratio ${(ours / scipy.median_ms).toFixed(3)} (fringekit ${ours.toFixed(1)} ms, scipy ${scipy.median_ms.toFixed(1)} ms)\n`);
+}

@@ -1,0 +1,8 @@
+// Fitting engine: re-exports only.
+export type * from "./types.js";
+export * from "./status.js";
+export * from "./leastSquares.js";
+export * from "./formula.js";
+export * from "./formulaModel.js";
+export * from "./fitProfile.js";
+export * from "./autoStart.js";

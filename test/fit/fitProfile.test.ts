@@ -1,0 +1,132 @@
+import { join } from "node:path";
+import { describe, expect, it } from "vitest";
+import { b1Profile, fitB1, runScipy, scipyAvailable } from "../../bench/B1.js";
+import { NIST_DIR, parseNistFile } from "../../bench/nist.js";
+import { InvalidArgumentError } from "../../src/errors.js";
+import { fitProfile } from "../../src/fit/fitProfile.js";
+import { formulaModel } from "../../src/fit/formulaModel.js";
+import { getModel, pixelPositions, simulateProfile } from "../../src/physics/index.js";
+import type { Profile } from "../../src/profile.js";
+
+const hasScipy = scipyAvailable();
+if (!hasScipy) process.stdout.write("SKIPPED: SciPy cross-check needs /usr/bin/python3 with python3-scipy\n");
+
+function nistProfile(name: string): { profile: Profile; data: ReturnType<typeof parseNistFile> } {
+  const data = parseNistFile(join(NIST_DIR, `${name}.dat`));
+  return { data, profile: { x: data.columns[0], y: data.y, yUnit: "1", counts: false } };
+}
+
+describe("fitProfile(profile, formulaModel(...)) on NIST StRD", () => {
+  // Certified values and standard deviations: NIST/ITL StRD, Misra1a and Thurber (files as published).
+  for (const name of ["Misra1a", "Thurber"]) {
+    it(`reproduces the certified ${name} values (>= 6 digits) and standard deviations (>= 4 digits)`, () => {
+      const { data, profile } = nistProfile(name);
+      const model = formulaModel(data.formula, { parameters: data.parameters });
+      const start = Object.fromEntries(data.parameters.map((b, j) => [b, data.starts[1][j]]));
+      const result = fitProfile(profile, model, { start, noise: "gaussian", tolerance: 1e-15 });
+      expect(result.converged).toBe(true);
+      result.parameters.forEach((p, j) => {
+        expect(Math.abs(p.value - data.certified[j]) / Math.abs(data.certified[j])).toBeLessThan(1e-6);
+        expect(Math.abs(p.stderr - data.certifiedSd[j]) / data.certifiedSd[j]).toBeLessThan(1e-4);
+      });
+      expect(result.statistics.chi2).toBeCloseTo(data.certifiedRss, 4);
+    });
+  }
+});
+
+describe("fitProfile(b1Profile, two-slit) against SciPy least_squares", () => {
+  it.skipIf(!hasScipy)("finds the same optimum and standard errors within 1 % (SciPy reference run in this test)", () => {
+    const profile = b1Profile(3);
+    const ours = fitB1(profile);
+    const scipy = runScipy(profile, 1);
+    expect(ours.converged).toBe(true);
+    expect(Math.abs(ours.statistics.chi2 - scipy.chi2) / scipy.chi2).toBeLessThan(1e-8);
+    for (const p of ours.parameters.filter((q) => !q.fixed)) {
+      const ref = scipy.values[p.name], refErr = scipy.stderr[p.name];
+      // same optimum: agreement far inside one standard error
+      expect(Math.abs(p.value - ref)).toBeLessThan(1e-3 * refErr);
+      expect(Math.abs(p.stderr - refErr) / refErr).toBeLessThan(0.01);
+    }
+  });
+});
+
+describe("fitProfile(profile, model, options)", () => {
+  const model = getModel("two-slit");
+  const x = pixelPositions(1024, 11e-6);
+  const truth = { amplitude: 5000, background: 80, center: 0.1e-3, separation: 0.4e-3, width: 0.08e-3, visibility: 0.8, phase: 0.5, pixelWidth: 11e-6 };
+  const profile = simulateProfile(model, truth, x, { noise: "poisson", seed: 11 });
+
+  it("finds its own start (autoStart) and reaches chi2/dof near 1 with Poisson noise", () => {
+    const result = fitProfile(profile, model, { fix: { pixelWidth: 11e-6 } });
+    expect(result.noise).toBe("poisson");
+    expect(result.converged).toBe(true);
+    expect(result.statistics.reducedChi2).toBeGreaterThan(0.85);
+    expect(result.statistics.reducedChi2).toBeLessThan(1.15);
+    for (const p of result.parameters.filter((q) => !q.fixed)) {
+      expect(Math.abs(p.value - truth[p.name as keyof typeof truth]) / p.stderr).toBeLessThan(4);
+    }
+  });
+
+  it("holds fixed parameters, evaluates ties and reports at-bound parameters", () => {
+    const result = fitProfile(profile, model, {
+      fix: { pixelWidth: 11e-6, phase: 0.5 }, tie: { width: "separation / 5" }, bounds: { visibility: [0, 0.7] },
+    });
+    const byName = Object.fromEntries(result.parameters.map((p) => [p.name, p]));
+    expect(byName.phase.value).toBe(0.5);
+    expect(byName.phase.fixed).toBe(true);
+    expect(byName.width.tied).toBe("separation / 5");
+    expect(byName.width.value).toBeCloseTo(byName.separation.value / 5, 15);
+    expect(byName.width.stderr).toBeCloseTo(byName.separation.stderr / 5, 15);
+    expect(byName.visibility.atBound).toBe("upper");
+    expect(result.warnings.some((w) => w.code === "at-bound" && w.parameter === "visibility")).toBe(true);
+    expect(result.freeNames).not.toContain("width");
+  });
+
+  it("stops with reason cancelled when signal.aborted is set, and reports progress", () => {
+    const signal = { aborted: false };
+    const seen: number[] = [];
+    const result = fitProfile(profile, model, {
+      fix: { pixelWidth: 11e-6 }, autoStart: false, signal,
+      onProgress: (p) => { seen.push(p.iteration); if (p.iteration >= 2) signal.aborted = true; },
+    });
+    expect(result.reason).toBe("cancelled");
+    expect(result.converged).toBe(false);
+    expect(seen.length).toBeGreaterThanOrEqual(2);
+  });
+
+  it("robust noise flags a hot pixel and is not pulled by it", () => {
+    const hot = { ...profile, y: Float64Array.from(profile.y), counts: true };
+    hot.y[300] += 4000;
+    const robust = fitProfile(hot, model, { fix: { pixelWidth: 11e-6 }, noise: "robust" });
+    expect(robust.flagged).toContain(300);
+    expect(robust.warnings.some((w) => w.code === "outliers-flagged")).toBe(true);
+    const clean = fitProfile(profile, model, { fix: { pixelWidth: 11e-6 }, noise: "gaussian" });
+    const sep = (r: typeof robust): number => r.parameters.find((p) => p.name === "separation")!.value;
+    expect(Math.abs(sep(robust) - sep(clean))).toBeLessThan(clean.parameters.find((p) => p.name === "separation")!.stderr);
+  });
+
+  it("throws InvalidArgumentError before work for unknown names, bad bounds and non-finite data", () => {
+    expect(() => fitProfile(profile, model, { fix: ["nonsense"] })).toThrow(InvalidArgumentError);
+    expect(() => fitProfile(profile, model, { bounds: { width: [2, 1] } })).toThrow(/bounds.width/);
+    expect(() => fitProfile(profile, model, { tie: { width: "separation * import" } })).toThrow(InvalidArgumentError);
+    const bad = { ...profile, y: Float64Array.from(profile.y) };
+    bad.y[5] = NaN;
+    expect(() => fitProfile(bad, model)).toThrow(/profile point 5/);
+    const masked = { ...bad, mask: new Uint8Array(bad.x.length).fill(1) };
+    masked.mask[5] = 0;
+    expect(fitProfile(masked, model, { fix: { pixelWidth: 11e-6 } }).statistics.n).toBe(bad.x.length - 1);
+  });
+
+  it("gives a consistent log-likelihood: AIC = -2 lnL + 2k, Poisson lnL = sum[y ln f - f - ln y!] (definition)", () => {
+    const result = fitProfile(profile, model, { fix: { pixelWidth: 11e-6 } });
+    let ll = 0;
+    for (let i = 0; i < profile.y.length; i++) {
+      const y = profile.y[i], f = result.model[i];
+      let lnFactorial = 0;
+      for (let k = 2; k <= y; k++) lnFactorial += Math.log(k);
+      ll += (y > 0 ? y * Math.log(f) : 0) - f - lnFactorial;
+    }
+    expect(result.statistics.logLikelihood).toBeCloseTo(ll, 6);
+    expect(result.statistics.aic).toBeCloseTo(-2 * ll + 2 * result.statistics.nFree, 6);
+  });
+});
