@@ -19,3 +19,4 @@ export * from "./coherence.js";
 export * from "./farField.js";
 export * from "./sourceSize.js";
 export * from "./localVisibility.js";
+export * from "./derivedQuantities.js";

@@ -1,6 +1,6 @@
 import { describe, expect, it } from "vitest";
 import {
-  bandwidthFromVisibilityDecay, coherenceLength, degreeOfCoherence, fringeGeometry, fringeMaxima, localVisibilities, measuredExtrema, propagateDerived,
+  bandwidthFromVisibilityDecay, coherenceLength, degreeOfCoherence, derivedQuantities, fringeGeometry, fringeMaxima, localVisibilities, measuredExtrema, propagateDerived,
 } from "../../src/stats/index.js";
 import { getModel, paramVector, pixelPositions, simulateProfile } from "../../src/physics/index.js";
 import { fakeFit, seeded } from "./fakeFit.js";
@@ -128,5 +128,22 @@ describe("localVisibilities", () => {
       expect(Math.abs(v0.value - 0.9)).toBeLessThan(4 * v0.uncertainty);
     }
     expect(inside).toBeGreaterThanOrEqual(4);
+  });
+});
+
+describe("derivedQuantities", () => {
+  it("derivedQuantities(fit, options) lists every supported quantity with value, uncertainty and unit", () => {
+    const broadband = fakeFit({ modelId: "two-slit-broadband", free: ["amplitude", "center", "separation", "visibility", "bandwidth"],
+      values: { ...truth, bandwidth: 2e-9 }, stderr: { amplitude: 3, center: 1e-7, separation: uSep, visibility: 0.01, bandwidth: 0.1e-9 }, logLikelihood: -1, chi2: 1, n: 10 });
+    const report = derivedQuantities(broadband, { intensityRatio: { value: 1, uncertainty: 0.02 } });
+    expect(report.quantities.map((q) => q.name)).toEqual(["fringeSpacing", "fringeFrequency", "separation", "fresnelNumber", "offsetNumber", "degreeOfCoherence", "coherenceLength"]);
+    for (const q of report.quantities) {
+      // Width is fixed here, so the Fresnel numbers carry only calibration uncertainty (none given): 0.
+      expect(Number.isFinite(q.value) && q.uncertainty >= 0 && Number.isFinite(q.uncertainty) && q.unit.length > 0, q.name).toBe(true);
+    }
+    // |γ12| = V for equal beams; l_c = λ²/Δλ with 5 % relative u (by hand).
+    expectClose(report.quantities[5].value, 0.8, 1e-15, "gamma");
+    expectClose(report.quantities[6].uncertainty / report.quantities[6].value, 0.05, 1e-12, "u(lc)");
+    expect(report.warnings).toEqual([]);
   });
 });
