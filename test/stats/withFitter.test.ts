@@ -1,0 +1,109 @@
+// Checks that need the fitter and the physics models: model choice between near- and far-field
+// models, and recovery of known truths from seeded simulations for the derived quantities.
+import { describe, expect, it } from "vitest";
+import { fitProfile } from "../../src/fit/index.js";
+import { getModel, paramVector, pixelPositions, simulateProfile } from "../../src/physics/index.js";
+import { compareFits, coherenceScanProfile, farFieldValidity, fringeGeometry, fringeMaxima, sourceSize } from "../../src/stats/index.js";
+import { seeded } from "./fakeFit.js";
+
+const lambda = 632.8e-9;
+
+describe("near-field against far-field model", () => {
+  it("compareFits prefers two-slit-fresnel by a wide AIC margin on a profile at Fresnel number ≈ 3", () => {
+    // a²/(λL) = (0.44 mm)²/(632.8 nm · 0.1 m) = 3.06 (physics farFieldCheck convention).
+    const truth = { amplitude: 3000, center: 1e-5, separation: 1e-3, width: 0.44e-3, slits: 2, wavelength: lambda, distance: 0.1, background: 20 };
+    const near = getModel("two-slit-fresnel");
+    const x = pixelPositions(1000, 3e-6);
+    const profile = simulateProfile(near, paramVector(near, truth), x, { noise: "poisson", seed: 11 });
+    const nearFit = fitProfile(profile, near, { start: { ...truth, amplitude: 2900, width: 0.43e-3, separation: 1.01e-3 } });
+    const far = getModel("two-slit");
+    const farPeak = (truth.amplitude * (2 * truth.width) ** 2) / (lambda * truth.distance);
+    const farFit = fitProfile(profile, far, {
+      start: { amplitude: farPeak / 4, center: 0, separation: 1e-3, width: 0.44e-3, visibility: 0.9, phase: 0, wavelength: lambda, distance: 0.1, background: 20 },
+    });
+    expect(nearFit.converged).toBe(true);
+    const result = compareFits([farFit, nearFit], { profile });
+    expect(result.preferred).toBe("two-slit-fresnel");
+    const farRow = result.rows.find((r) => r.modelId === "two-slit")!;
+    expect(farRow.deltaAic).toBeGreaterThan(100);
+    expect(farFieldValidity(farFit).warning).toMatch(/far-field model used outside its range/);
+    expect(result.verdict).toMatch(/two-slit-fresnel is preferred over two-slit: ΔAIC = \d+/);
+  });
+  it("compareFits does not prefer two-slit-fresnel by a wide margin on a far-field profile", () => {
+    // a²/(λL) = 0.016 and d·a/(λL) = 0.079: inside the far-field range (limit 0.1).
+    const truth = { amplitude: 400, center: 2e-5, separation: 0.5e-3, width: 0.1e-3, slits: 2, wavelength: lambda, distance: 1, background: 20 };
+    const near = getModel("two-slit-fresnel");
+    const x = pixelPositions(2048, 5.5e-6);
+    const profile = simulateProfile(near, paramVector(near, truth), x, { noise: "poisson", seed: 5 });
+    const nearFit = fitProfile(profile, near, { start: { ...truth, amplitude: 390, width: 0.098e-3, separation: 0.501e-3 } });
+    const far = getModel("two-slit");
+    const farPeak = (truth.amplitude * (2 * truth.width) ** 2) / (lambda * truth.distance);
+    const farFit = fitProfile(profile, far, {
+      start: { amplitude: farPeak * 0.95, center: 2e-5, separation: 0.501e-3, width: 0.098e-3, visibility: 0.95, phase: 0, wavelength: lambda, distance: 1, background: 20 },
+    });
+    expect(nearFit.converged && farFit.converged).toBe(true);
+    const result = compareFits([farFit, nearFit], { profile });
+    const nearRow = result.rows.find((r) => r.modelId === "two-slit-fresnel")!;
+    const farRow = result.rows.find((r) => r.modelId === "two-slit")!;
+    // "Wide margin" = ΔAIC above 10 (Burnham & Anderson 2002: essentially no support beyond 10).
+    expect(farRow.aic - nearRow.aic).toBeLessThan(10);
+    expect(farFieldValidity(farFit).valid).toBe(true);
+    expect(result.verdict).not.toMatch(/consider the near-field model/);
+  });
+});
+
+describe("recovery of known truths from seeded fits", () => {
+  const far = getModel("two-slit");
+  // The B1 bench of the benchmark problems, on 2048 pixels to keep the test light.
+  const truth = { amplitude: 20000, center: 0.37e-3, separation: 0.5e-3, width: 0.1e-3, visibility: 0.85, phase: 0.3, wavelength: lambda, distance: 1, background: 150 };
+  const start = { amplitude: 18000, center: 0.3e-3, separation: 0.497e-3, width: 0.11e-3, visibility: 0.7, phase: 0, wavelength: lambda, distance: 1, background: 100 };
+  const x = pixelPositions(2048, 5.5e-6);
+  it("fringeGeometry, fringeMaxima and farFieldValidity recover the simulated geometry within their uncertainties", () => {
+    const z: Record<string, number[]> = { separation: [], spacing: [], maxima: [], fresnel: [] };
+    for (let seed = 1; seed <= 8; seed++) {
+      const profile = simulateProfile(far, paramVector(far, truth), x, { noise: "poisson", seed });
+      const fit = fitProfile(profile, far, { start });
+      expect(fit.converged).toBe(true);
+      const q = Object.fromEntries(fringeGeometry(fit, { distance: { value: 1, uncertainty: 1e-3 }, pixelPitchRelative: 1e-3 }).map((v) => [v.name, v]));
+      z.separation.push((q.separation.value - truth.separation) / q.separation.uncertainty);
+      z.spacing.push((q.fringeSpacing.value - (lambda * 1) / truth.separation) / q.fringeSpacing.uncertainty);
+      for (const m of fringeMaxima(fit, x[0], x[x.length - 1])) {
+        const s = ((m.order - truth.phase / (2 * Math.PI)) * lambda) / truth.separation;
+        z.maxima.push((m.position.value - (truth.center + s / Math.sqrt(1 - s * s))) / m.position.uncertainty);
+      }
+      const ff = farFieldValidity(fit);
+      z.fresnel.push((ff.fresnelNumber.value - truth.width ** 2 / lambda) / ff.fresnelNumber.uncertainty);
+    }
+    for (const [name, list] of Object.entries(z)) {
+      // z = (estimate − truth)/u: each within 4, and mean z² below 3.27, the 99.9 % point of
+      // χ²(8)/8 (A&S Table 26.8: χ²_{0.001}(8) = 26.12) for 8 independent seeds.
+      expect(Math.max(...list.map(Math.abs)), name).toBeLessThan(4);
+      expect(list.reduce((a, v) => a + v * v, 0) / list.length, name).toBeLessThan(3.27);
+    }
+  });
+});
+
+describe("source size from a coherence scan", () => {
+  const separations = [0.1, 0.2, 0.3, 0.4, 0.5, 0.6, 0.7, 0.8, 0.9, 1.0, 1.1, 1.2].map((d) => d * 1e-3);
+  const u = 0.01;
+  for (const [id, sizeName, size] of [["coherence-disc", "diameter", 0.5e-3], ["coherence-gaussian", "rmsSize", 0.12e-3]] as const) {
+    it(`sourceSize(fit of ${id}) covers the simulated ${sizeName} with its 95 % interval in most seeded scans`, () => {
+      const model = getModel(id);
+      const truth = { visibility: 0.95, [sizeName]: size, sourceDistance: 1, wavelength: 550e-9 };
+      const clean = new Float64Array(separations.length);
+      model.evaluate(Float64Array.from(separations), paramVector(model, truth), clean);
+      let covered = 0;
+      const runs = 40;
+      for (let seed = 1; seed <= runs; seed++) {
+        const rng = seeded(seed);
+        const scan = coherenceScanProfile(separations, Array.from(clean, (v) => v + u * rng.normal()), separations.map(() => u));
+        const fit = fitProfile(scan, model, { start: { ...truth, [sizeName]: size * 1.2, visibility: 0.9 }, sigmaAbsolute: true });
+        expect(fit.converged).toBe(true);
+        const result = sourceSize(fit, { sourceDistance: { value: 1, uncertainty: 0 } });
+        if (result.interval[0] <= size && size <= result.interval[1]) covered++;
+      }
+      // Nominal 95 %; with 40 scans, 33 or more covered is expected (binomial, p ≈ 0.99).
+      expect(covered).toBeGreaterThanOrEqual(33);
+    });
+  }
+});
