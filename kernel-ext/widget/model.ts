@@ -41,8 +41,12 @@ export type CustomListener = (content: unknown, buffers: DataView[]) => void | P
 
 /** Options of a widget model. */
 export interface WidgetModelOptions<S> {
-  /** Serialisers per state key, e.g. `{ x: typedArraySerializer }` for binary arrays. */
-  serializers?: { [K in keyof S]?: Serializer<S[K]> };
+  /**
+   * Serialisers per state key, e.g. `{ x: typedArraySerializer }` for binary arrays. Typed
+   * loosely so one serialiser serves every typed-array type a key may hold.
+   */
+  // eslint-disable-next-line @typescript-eslint/no-explicit-any
+  serializers?: { [K in keyof S]?: Serializer<any> };
 }
 
 /**
@@ -56,7 +60,8 @@ export class WidgetModel<S extends Record<string, unknown>> {
   readonly comm: Comm;
   readonly identity: WidgetIdentity;
   private state: S;
-  private readonly serializers: { [K in keyof S]?: Serializer<S[K]> };
+  // eslint-disable-next-line @typescript-eslint/no-explicit-any
+  private readonly serializers: { [K in keyof S]?: Serializer<any> };
   private readonly changeListeners = new Set<ChangeListener<S>>();
   private readonly customListeners = new Set<CustomListener>();
 
