@@ -3,7 +3,9 @@
 import { describe, expect, it } from "vitest";
 import { fitProfile } from "../../src/fit/index.js";
 import { getModel, paramVector, pixelPositions, simulateProfile } from "../../src/physics/index.js";
-import { compareFits, coherenceScanProfile, farFieldValidity, fringeGeometry, fringeMaxima, sourceSize } from "../../src/stats/index.js";
+import {
+  coherenceLength, coherenceScanProfile, compareFits, degreeOfCoherence, farFieldValidity, fringeGeometry, fringeMaxima, sourceSize,
+} from "../../src/stats/index.js";
 import { seeded } from "./fakeFit.js";
 
 const lambda = 632.8e-9;
@@ -17,9 +19,9 @@ describe("near-field against far-field model", () => {
     const profile = simulateProfile(near, paramVector(near, truth), x, { noise: "poisson", seed: 11 });
     const nearFit = fitProfile(profile, near, { start: { ...truth, amplitude: 2900, width: 0.43e-3, separation: 1.01e-3 } });
     const far = getModel("two-slit");
-    const farPeak = (truth.amplitude * (2 * truth.width) ** 2) / (lambda * truth.distance);
+    // Far-field start: peak of the data, the true geometry and full visibility — its best chance.
     const farFit = fitProfile(profile, far, {
-      start: { amplitude: farPeak / 4, center: 0, separation: 1e-3, width: 0.44e-3, visibility: 0.9, phase: 0, wavelength: lambda, distance: 0.1, background: 20 },
+      start: { amplitude: Math.max(...profile.y) - 20, center: 1e-5, separation: 1e-3, width: 0.44e-3, visibility: 0.9, phase: 0, wavelength: lambda, distance: 0.1, background: 20 },
     });
     expect(nearFit.converged).toBe(true);
     const result = compareFits([farFit, nearFit], { profile });
@@ -80,6 +82,60 @@ describe("recovery of known truths from seeded fits", () => {
       expect(Math.max(...list.map(Math.abs)), name).toBeLessThan(4);
       expect(list.reduce((a, v) => a + v * v, 0) / list.length, name).toBeLessThan(3.27);
     }
+  });
+});
+
+describe("coherence quantities from seeded fits", () => {
+  const x = pixelPositions(2048, 5.5e-6);
+  const zScores = (list: number[], name: string) => {
+    // Same acceptance as above: each |z| < 4 and mean z² below the 99.9 % point of χ²(n)/n
+    // (A&S Table 26.8: χ²_{0.001}(6) = 22.46, so 3.74 for six seeds).
+    expect(Math.max(...list.map(Math.abs)), name).toBeLessThan(4);
+    expect(list.reduce((a, v) => a + v * v, 0) / list.length, name).toBeLessThan(3.74);
+  };
+  it("degreeOfCoherence recovers |γ12| from the fitted visibility and a measured intensity ratio", () => {
+    // Unequal beams r = I1/I2 = 0.5 and |γ12| = 0.9 give V = 2√r/(1 + r) · |γ12| (Born & Wolf §10.4.1).
+    const r = 0.5, gamma = 0.9;
+    const visibility = ((2 * Math.sqrt(r)) / (1 + r)) * gamma;
+    const far = getModel("two-slit");
+    const truth = { amplitude: 8000, center: 0.1e-3, separation: 0.5e-3, width: 0.1e-3, visibility, phase: 0.2, wavelength: lambda, distance: 1, background: 100 };
+    const z: number[] = [];
+    for (let seed = 1; seed <= 6; seed++) {
+      const profile = simulateProfile(far, paramVector(far, truth), x, { noise: "poisson", seed });
+      const fit = fitProfile(profile, far, { start: { ...truth, visibility: 0.7, amplitude: 7000 } });
+      const v = fit.parameters.find((p) => p.name === "visibility")!;
+      const g = degreeOfCoherence({ value: v.value, uncertainty: v.stderr }, { value: r, uncertainty: 0.005 });
+      z.push((g.value - gamma) / g.uncertainty);
+    }
+    zScores(z, "gamma");
+  });
+  it("coherenceLength recovers λ²/Δλ from a fitted two-slit-broadband bandwidth", () => {
+    const model = getModel("two-slit-broadband");
+    const truth = { amplitude: 20000, center: 0, separation: 0.5e-3, width: 0.05e-3, visibility: 0.9, phase: 0, wavelength: 600e-9, bandwidth: 20e-9, distance: 1, background: 50 };
+    const z: number[] = [];
+    for (let seed = 1; seed <= 6; seed++) {
+      const profile = simulateProfile(model, paramVector(model, truth), x, { noise: "poisson", seed });
+      const fit = fitProfile(profile, model, { start: { ...truth, bandwidth: 15e-9, visibility: 0.8 }, free: ["bandwidth"] });
+      expect(fit.converged).toBe(true);
+      const b = fit.parameters.find((p) => p.name === "bandwidth")!;
+      const lc = coherenceLength({ value: 600e-9, uncertainty: 0 }, { value: b.value, uncertainty: b.stderr });
+      z.push((lc.value - (600e-9) ** 2 / 20e-9) / lc.uncertainty);
+    }
+    zScores(z, "coherence length");
+  });
+  it("fringeGeometry recovers the wavelength from a known separation when the fit assumed a nominal one", () => {
+    const far = getModel("two-slit");
+    const truth = { amplitude: 20000, center: 0.37e-3, separation: 0.5e-3, width: 0.1e-3, visibility: 0.85, phase: 0.3, wavelength: lambda, distance: 1, background: 150 };
+    const z: number[] = [];
+    for (let seed = 1; seed <= 6; seed++) {
+      const profile = simulateProfile(far, paramVector(far, truth), x, { noise: "poisson", seed });
+      // The fit holds λ at a nominal 600 nm, so its separation absorbs the difference.
+      const fit = fitProfile(profile, far, { start: { ...truth, wavelength: 600e-9, separation: 0.47e-3, amplitude: 18000 } });
+      const q = fringeGeometry(fit, { separation: { value: 0.5e-3, uncertainty: 0.5e-6 }, distance: { value: 1, uncertainty: 1e-3 }, pixelPitchRelative: 1e-3 });
+      const w = q.find((v) => v.name === "wavelength")!;
+      z.push((w.value - lambda) / w.uncertainty);
+    }
+    zScores(z, "wavelength");
   });
 });
 
