@@ -10,3 +10,5 @@ export * from "./fitTable.js";
 export * from "./comparisonTable.js";
 export * from "./tableReport.js";
 export * from "./figures/index.js";
+export * from "./version.js";
+export * from "./results/index.js";

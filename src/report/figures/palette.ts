@@ -3,7 +3,8 @@
  * apart in greyscale print, and the hues (navy, vermilion, teal, ochre) avoid the red–green
  * pairs that colour-blind readers confuse; each series also gets its own dash pattern and
  * marker, so no information rests on colour alone.
- * CIE L* (approximate, computed from sRGB): ink 21, navy 27, vermilion 52, teal 67, ochre 80.
+ * CIE L* (from sRGB, IEC 61966-2-1): ink 18, navy 26, vermilion 48, teal 60, ochre 72; test/report checks
+ * the steps stay at least 10 apart.
  */
 
 /** Data points and text. */
@@ -20,11 +21,11 @@ export const SERIES_MARKER = ["circle", "square", "diamond", "triangle-up"] as c
 export const BAND_FILL = "rgba(20, 61, 115, 0.18)";
 /** Reference lines (zero residual, Δχ² thresholds). */
 export const GUIDE = "#7a7a7a";
-/** Diverging scale for correlations: −1 navy, 0 near-white, +1 vermilion (lightness symmetric). */
+/** Diverging scale for correlations: −1 navy, 0 near-white, +1 dark vermilion (equal lightness at ±1). */
 export const DIVERGING: [number, string][] = [
   [0, "#143d73"],
   [0.5, "#f4f4f4"],
-  [1, "#a8401f"],
+  [1, "#74280e"],
 ];
 
 /** Colour, dash and marker of series `i` (wraps around after four). */

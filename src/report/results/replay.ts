@@ -1,0 +1,159 @@
+/**
+ * Replay: re-run the fits of a results document on the same data and say whether they
+ * reproduce (numbers equal within tolerance) or what differs. Refuses data whose SHA-256
+ * does not match the one recorded. This is the logic behind `fringekit replay RESULT.json
+ * [--data FILE]`; reading files and computing the hash happen at the edge (io, cli).
+ */
+import { DataError, InvalidArgumentError } from "../../errors.js";
+import type { FitResult } from "../../fit/types.js";
+import type { Model } from "../../physics/model.js";
+import type { Profile } from "../../profile.js";
+import { embeddedProfile, type ResultsDocument } from "./resultsDocument.js";
+
+/** The fitting machinery replay calls: the registry's getModel and the fitter's fitProfile. */
+export interface ReplayEngine {
+  getModel(id: string, options?: Record<string, unknown>): Model;
+  fitProfile(profile: Profile, model: Model, options?: Record<string, unknown>): FitResult;
+}
+
+export interface ReplayOptions {
+  /** Relative tolerance on fixed values and statistics (default 1e-6). */
+  relative?: number;
+  /** Allowed change of a fitted value as a fraction of its standard error (default 1e-3). */
+  stderrFraction?: number;
+  /** Allowed relative change of a standard error (default 1e-3). */
+  stderrRelative?: number;
+  /** SHA-256 of the data file's bytes when the profile carries no provenance. */
+  sha256?: string;
+}
+
+/** One number (or flag) that did not reproduce. */
+export interface ReplayDifference {
+  fit: string;
+  quantity: string;
+  recorded: number | string | boolean;
+  replayed: number | string | boolean;
+  allowed: string;
+}
+
+export interface ReplayReport {
+  reproduced: boolean;
+  differences: ReplayDifference[];
+  /** The new results, in the order of doc.fits. */
+  replayed: FitResult[];
+  /** How the data were identified: by the file's SHA-256, or embedded in the results file. */
+  dataCheck: "sha256" | "embedded";
+  /** One paragraph in plain words. */
+  summary: string;
+}
+
+/**
+ * Re-run every fit of `doc` on `profile` (or on the data embedded in `doc` when profile is
+ * null) and compare. Throws DataError when the data's SHA-256 differs from the recorded one,
+ * or when no data is given for a document that does not embed it.
+ * @param profile the profile read from the data file with doc.input.readOptions, its provenance holding the file's SHA-256
+ */
+export function replayResults(doc: ResultsDocument, profile: Profile | null, engine: ReplayEngine, options: ReplayOptions = {}): ReplayReport {
+  const { data, dataCheck } = chooseData(doc, profile, options);
+  const relative = options.relative ?? 1e-6;
+  const fraction = options.stderrFraction ?? 1e-3;
+  const stderrRelative = options.stderrRelative ?? 1e-3;
+  const differences: ReplayDifference[] = [];
+  const replayed: FitResult[] = [];
+  for (const record of doc.fits) {
+    const model = engine.getModel(record.modelId, record.modelOptions);
+    const now = engine.fitProfile(data, model, { ...record.fitOptions });
+    replayed.push(now);
+    differences.push(...compareResults(record.label, record.result, now, { relative, fraction, stderrRelative }));
+  }
+  const reproduced = differences.length === 0;
+  const what = `${doc.fits.length} fit${doc.fits.length === 1 ? "" : "s"} (${doc.fits.map((f) => f.label).join(", ")})`;
+  const dataWords = dataCheck === "sha256" ? `data ${doc.input.source ?? ""} matched by SHA-256` : "data embedded in the results file";
+  const summary = reproduced
+    ? `Reproduced: ${what} on ${dataWords}; every fitted value within ${fraction} standard errors, fixed ones within ${relative} relative, standard errors within ${stderrRelative * 100} %, statistics within ${relative} relative.`
+    : `NOT reproduced: ${differences.length} difference${differences.length === 1 ? "" : "s"} in ${what} on ${dataWords}: ` +
+      differences.slice(0, 5).map((d) => `${d.fit} ${d.quantity} ${d.recorded} → ${d.replayed} (allowed ${d.allowed})`).join("; ") +
+      (differences.length > 5 ? `; and ${differences.length - 5} more` : "") + ".";
+  return { reproduced, differences, replayed, dataCheck, summary };
+}
+
+/**
+ * Compare two results of the same fit: convergence, point and parameter counts, each
+ * parameter's value and standard error, χ², log-likelihood, AIC, BIC, and warning codes.
+ */
+export function compareResults(
+  label: string,
+  recorded: FitResult,
+  replayed: FitResult,
+  tol: { relative: number; fraction: number; stderrRelative: number },
+): ReplayDifference[] {
+  const out: ReplayDifference[] = [];
+  const add = (quantity: string, a: number | string | boolean, b: number | string | boolean, allowed: string) =>
+    out.push({ fit: label, quantity, recorded: a, replayed: b, allowed });
+  if (recorded.converged !== replayed.converged) add("converged", recorded.converged, replayed.converged, "the same");
+  if (recorded.statistics.n !== replayed.statistics.n) add("points used", recorded.statistics.n, replayed.statistics.n, "the same");
+  if (recorded.statistics.nFree !== replayed.statistics.nFree) add("free parameters", recorded.statistics.nFree, replayed.statistics.nFree, "the same");
+  for (const p of recorded.parameters) {
+    const q = replayed.parameters.find((r) => r.name === p.name);
+    if (!q) {
+      add(p.name, "present", "missing", "the same parameters");
+      continue;
+    }
+    if (p.fixed !== q.fixed) add(`${p.name} fixed`, p.fixed, q.fixed, "the same");
+    // A fitted value may move by a small fraction of its uncertainty; a fixed one only by rounding.
+    const valueTol = Number.isFinite(p.stderr) && p.stderr > 0 ? tol.fraction * p.stderr : tol.relative * Math.abs(p.value);
+    if (!within(p.value, q.value, valueTol)) add(`${p.name} value`, p.value, q.value, `± ${valueTol.toPrecision(2)}`);
+    const seTol = Math.max(tol.stderrRelative, tol.relative) * Math.abs(p.stderr);
+    if (!within(p.stderr, q.stderr, seTol)) add(`${p.name} standard error`, p.stderr, q.stderr, `± ${seTol.toPrecision(2)}`);
+  }
+  for (const key of ["chi2", "logLikelihood", "aic", "bic"] as const) {
+    const a = recorded.statistics[key];
+    const b = replayed.statistics[key];
+    const t = Math.max(tol.relative * Math.abs(a), 1e-9);
+    if (!within(a, b, t)) add(key, a, b, `± ${t.toPrecision(2)}`);
+  }
+  const codes = (r: FitResult) => r.warnings.map((w) => `${w.code}${w.parameter ? `:${w.parameter}` : ""}`).sort().join(", ");
+  if (codes(recorded) !== codes(replayed)) add("warnings", codes(recorded) || "none", codes(replayed) || "none", "the same warnings");
+  return out;
+}
+
+/** Equal within `tolerance`; NaN equals NaN and ∞ equals ∞ of the same sign (an unestimable error stays unestimable). */
+function within(a: number, b: number, tolerance: number): boolean {
+  if (Number.isNaN(a) || Number.isNaN(b)) return Number.isNaN(a) && Number.isNaN(b);
+  if (!Number.isFinite(a) || !Number.isFinite(b)) return a === b;
+  return Math.abs(a - b) <= tolerance;
+}
+
+function chooseData(doc: ResultsDocument, profile: Profile | null, options: ReplayOptions): { data: Profile; dataCheck: "sha256" | "embedded" } {
+  const source = doc.input.source ?? "the data";
+  if (!profile) {
+    const embedded = embeddedProfile(doc);
+    if (!embedded) {
+      throw new DataError(source, "the results file does not embed its data", `give the data file it was made from (--data ${doc.input.source ?? "FILE"})`);
+    }
+    return { data: embedded, dataCheck: "embedded" };
+  }
+  const recorded = doc.input.sha256;
+  const actual = profile.provenance?.sha256 ?? options.sha256;
+  if (recorded === null) {
+    throw new DataError(source, "the results file records no SHA-256 for its data (it was not read from a file)", "replay it without --data: the data are embedded");
+  }
+  if (typeof actual !== "string" || !/^[0-9a-f]{64}$/.test(actual)) {
+    throw new InvalidArgumentError("profile", "no SHA-256", "a profile read from a file (provenance.sha256) or options.sha256 with the file's hash");
+  }
+  if (actual !== recorded) {
+    throw new DataError(
+      profile.provenance?.source ?? source,
+      `SHA-256 ${actual.slice(0, 16)}… does not match ${recorded.slice(0, 16)}… recorded for ${source}`,
+      "this is not the data the result was made from; give the original file (--data FILE)",
+    );
+  }
+  if (profile.x.length !== doc.input.points) {
+    throw new DataError(source, `read ${profile.x.length} points but the result used ${doc.input.points}`, `read the file with the recorded options ${JSON.stringify(doc.input.readOptions)}`);
+  }
+  // The recorded mask is what was fitted; it replaces whatever the reader produced.
+  const data: Profile = { ...profile };
+  if (doc.input.mask) data.mask = doc.input.mask;
+  else delete data.mask;
+  return { data, dataCheck: "sha256" };
+}
