@@ -3,6 +3,7 @@ export type { Model, ParameterSpec } from "./model.js";
 export type { PointPattern } from "./pattern.js";
 export * from "./quadrature.js";
 export * from "./detector.js";
+export * from "./withDetector.js";
 export * from "./twoSlit.js";
 export * from "./nSlit.js";
 export * from "./twoBeam.js";
