@@ -2,3 +2,4 @@
 export * from "./exportFigure.js";
 export * from "./atomicWrite.js";
 export { setPngDpi } from "./pngDensity.js";
+export * from "./figureBundle.js";

@@ -5,16 +5,21 @@
  * [--data FILE]`; reading files and computing the hash happen at the edge (io, cli).
  */
 import { DataError, InvalidArgumentError } from "../../errors.js";
-import type { FitResult } from "../../fit/types.js";
+import { fitProfile } from "../../fit/fitProfile.js";
+import type { FitOptions, FitResult } from "../../fit/types.js";
 import type { Model } from "../../physics/model.js";
+import { getModel } from "../../physics/registry.js";
 import type { Profile } from "../../profile.js";
 import { embeddedProfile, type ResultsDocument } from "./resultsDocument.js";
 
 /** The fitting machinery replay calls: the registry's getModel and the fitter's fitProfile. */
 export interface ReplayEngine {
   getModel(id: string, options?: Record<string, unknown>): Model;
-  fitProfile(profile: Profile, model: Model, options?: Record<string, unknown>): FitResult;
+  fitProfile(profile: Profile, model: Model, options?: FitOptions): FitResult;
 }
+
+/** fringekit's own model registry and fitter: what replay uses unless told otherwise. */
+export const DEFAULT_REPLAY_ENGINE: ReplayEngine = { getModel, fitProfile };
 
 export interface ReplayOptions {
   /** Relative tolerance on fixed values and statistics (default 1e-6). */
@@ -53,7 +58,12 @@ export interface ReplayReport {
  * or when no data is given for a document that does not embed it.
  * @param profile the profile read from the data file with doc.input.readOptions, its provenance holding the file's SHA-256
  */
-export function replayResults(doc: ResultsDocument, profile: Profile | null, engine: ReplayEngine, options: ReplayOptions = {}): ReplayReport {
+export function replayResults(
+  doc: ResultsDocument,
+  profile: Profile | null,
+  engine: ReplayEngine = DEFAULT_REPLAY_ENGINE,
+  options: ReplayOptions = {},
+): ReplayReport {
   const { data, dataCheck } = chooseData(doc, profile, options);
   const relative = options.relative ?? 1e-6;
   const fraction = options.stderrFraction ?? 1e-3;
@@ -62,7 +72,7 @@ export function replayResults(doc: ResultsDocument, profile: Profile | null, eng
   const replayed: FitResult[] = [];
   for (const record of doc.fits) {
     const model = engine.getModel(record.modelId, record.modelOptions);
-    const now = engine.fitProfile(data, model, { ...record.fitOptions });
+    const now = engine.fitProfile(data, model, { ...record.fitOptions } as FitOptions);
     replayed.push(now);
     differences.push(...compareResults(record.label, record.result, now, { relative, fraction, stderrRelative }));
   }

@@ -1,0 +1,61 @@
+// End to end: a CSV file's bytes → io's readTable → fitProfile → results JSON → replay with the
+// real fitter. The SHA-256 comes from the bytes, as the command line computes it.
+import { describe, expect, it } from "vitest";
+import { fitProfile } from "../../src/fit/fitProfile.js";
+import { readTable } from "../../src/io/parseTable.js";
+import { getModel } from "../../src/physics/registry.js";
+import { pixelPositions, simulateProfile } from "../../src/physics/simulate.js";
+import { replayResults } from "../../src/report/results/replay.js";
+import { fitDocument, parseResults, stringifyResults } from "../../src/report/results/resultsDocument.js";
+import { TWO_SLIT_TRUTH } from "./figureExamples.js";
+
+/** A B1-like scan (512 pixels of 22 µm, Poisson counts, seed 11) as the bytes of a CSV file. */
+function csvBytes(seed: number): Uint8Array {
+  const x = pixelPositions(512, 22e-6);
+  const sim = simulateProfile(getModel("two-slit"), TWO_SLIT_TRUTH, x, { noise: "poisson", seed });
+  const lines = ["position [mm],intensity (counts)"];
+  for (let i = 0; i < x.length; i++) lines.push(`${(x[i] * 1e3).toFixed(6)},${sim.y[i]}`);
+  return new TextEncoder().encode(`${lines.join("\n")}\n`);
+}
+
+const START = { amplitude: 18000, background: 100, center: 0.3e-3, separation: 0.497e-3, width: 0.11e-3, visibility: 0.7, phase: 0 };
+
+describe("replayResults(doc, profile) with fitProfile", () => {
+  const bytes = csvBytes(11);
+  const readOptions = { source: "scan-11.csv" };
+  const { profile } = readTable(bytes, readOptions);
+  const model = getModel("two-slit");
+  const result = fitProfile(profile, model, { start: START, noise: "poisson" });
+  const text = stringifyResults(fitDocument(profile, { result, fitOptions: { start: START, noise: "poisson" } }));
+
+  it("the recorded fit converged (precondition)", () => {
+    expect(result.converged).toBe(true);
+  });
+
+  it("replayResults(parseResults(json), readTable(same bytes)) reproduces the fit", () => {
+    const doc = parseResults(text, "fit.json");
+    expect(doc.input.sha256).toMatch(/^[0-9a-f]{64}$/);
+    const again = readTable(bytes, { ...(doc.input.readOptions as object), source: "scan-11.csv" }).profile;
+    const report = replayResults(doc, again);
+    expect(report.differences).toEqual([]);
+    expect(report.reproduced).toBe(true);
+    expect(report.dataCheck).toBe("sha256");
+  });
+
+  it("replayResults refuses a file with one changed count (different SHA-256)", () => {
+    const changed = Uint8Array.from(bytes);
+    const at = changed.lastIndexOf(0x2c) + 1; // first digit of the last count
+    changed[at] = changed[at] === 0x39 ? 0x38 : changed[at] + 1;
+    const other = readTable(changed, { source: "scan-11.csv" }).profile;
+    expect(() => replayResults(parseResults(text), other)).toThrow(/SHA-256 .* does not match .*; this is not the data the result was made from/);
+  });
+
+  it("replayResults says what differs when the recorded options no longer give the same fit", () => {
+    const doc = parseResults(text);
+    doc.fits[0].fitOptions = { ...doc.fits[0].fitOptions, fix: { visibility: 0.8 } };
+    const report = replayResults(doc, readTable(bytes, readOptions).profile);
+    expect(report.reproduced).toBe(false);
+    expect(report.differences.map((d) => d.quantity)).toContain("visibility fixed");
+    expect(report.summary).toMatch(/^NOT reproduced/);
+  });
+});
