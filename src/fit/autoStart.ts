@@ -153,6 +153,8 @@ function linearFringeFit(y: Float64Array, x0: number, dx: number, center: number
   wavelength: number, sine: (u: number) => number): { rss: number; start: Record<string, number> } | null {
   const n = y.length;
   const ata = new Float64Array(16), aty = new Float64Array(4), row = new Float64Array(4);
+  let lowest = Infinity;
+  for (let i = 0; i < n; i++) lowest = Math.min(lowest, y[i]);
   for (let i = 0; i < n; i++) {
     const s = sine(x0 + i * dx - center);
     const beta = (Math.PI * width * s) / wavelength;
@@ -178,7 +180,9 @@ function linearFringeFit(y: Float64Array, x0: number, dx: number, center: number
     rss += (y[i] - f) ** 2;
   }
   const visibility = Math.min(0.99, Math.max(0.02, Math.hypot(b, c) / amplitude));
-  return { rss, start: { amplitude, background, center, separation, width, visibility, phase: Math.atan2(-c, b) } };
+  // Keep the start's intensity positive everywhere (the Poisson deviance needs f > 0).
+  const floor = Math.max(1e-3 * amplitude, lowest > 0 ? 0.5 * lowest : 0);
+  return { rss, start: { amplitude, background: Math.max(background, floor), center, separation, width, visibility, phase: Math.atan2(-c, b) } };
 }
 
 /** Gaussian elimination with partial pivoting on a 4 × 4 system (copies its inputs). */

@@ -6,3 +6,7 @@ export * from "./formula.js";
 export * from "./formulaModel.js";
 export * from "./fitProfile.js";
 export * from "./autoStart.js";
+export * from "./profileInterval.js";
+export * from "./propagate.js";
+export * from "./bootstrap.js";
+export * from "./fitJoint.js";

@@ -1,0 +1,41 @@
+/**
+ * Re-running a fit with the settings a FitResult was made with (for profile likelihood and
+ * bootstrap): fixed and tied parameters, bounds, noise model and σ handling are read back
+ * from the result unless options are given.
+ */
+import type { Model } from "../physics/model.js";
+import type { FitOptions, FitResult } from "./types.js";
+
+/** Fit options equivalent to the ones that produced `result`, with every free parameter started at its fitted value. */
+export function optionsFromResult(result: FitResult, model: Model, given?: FitOptions): FitOptions {
+  const fix: Record<string, number> = {};
+  const tie: Record<string, string> = {};
+  const bounds: Record<string, [number, number]> = {};
+  const start: Record<string, number> = {};
+  const free: string[] = [];
+  for (const p of result.parameters) {
+    const spec = model.parameters.find((s) => s.name === p.name);
+    if (p.tied !== null) tie[p.name] = p.tied;
+    else if (p.fixed) fix[p.name] = p.value;
+    else {
+      start[p.name] = p.value;
+      bounds[p.name] = [p.lower, p.upper];
+      if (spec?.fixedByDefault) free.push(p.name);
+    }
+  }
+  return {
+    ...given,
+    fix, tie, bounds, start, free,
+    noise: result.noise,
+    sigmaAbsolute: given?.sigmaAbsolute ?? (result.noise === "gaussian" ? !result.covarianceScaled : undefined),
+    autoStart: false,
+  };
+}
+
+/** Factor that turns a change of the objective into a change of −2 ln L (1, or 1/s² when σ was scaled). */
+export function objectiveScale(result: FitResult): number {
+  const s = result.statistics;
+  if (result.noise === "poisson") return 1;
+  if (result.noise === "robust") return s.dof > 0 ? s.objective / s.dof : 1;
+  return result.covarianceScaled ? s.reducedChi2 : 1;
+}
