@@ -8,6 +8,9 @@
  * w = pixelWidth, g_σ a unit-area Gaussian of standard deviation σ = blur, P the pattern.
  * Derivatives follow by differentiating under the integral (∂/∂w and ∂/∂σ use ∂P/∂x).
  * With blur = 0 the blur nodes are skipped (the σ-derivative is then exactly 0 by symmetry).
+ * Accuracy on a cosine fringe of period P (test/physics/detector.test.ts): 5 Legendre nodes
+ * err by ~3e-11 of the fringe amplitude at w = P/4 (far less at usual pixel sizes);
+ * 16 Hermite nodes by < 1e-9 up to σ = P/4.
  */
 import { InvalidArgumentError } from "../errors.js";
 import type { Model, ParameterSpec } from "./model.js";

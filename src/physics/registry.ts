@@ -69,7 +69,21 @@ const ENTRIES: Record<string, Entry> = {
 export function getModel(id: string, options: ModelOptions = {}): Model {
   const entry = Object.hasOwn(ENTRIES, id) ? ENTRIES[id] : undefined;
   if (!entry) throw new InvalidArgumentError("model id", id, `one of ${Object.keys(ENTRIES).join(", ")}`);
+  checkOptions(options);
   return entry.create(options);
+}
+
+const OPTION_NAMES = ["smallAngle", "pixelNodes", "blurNodes", "spectrum"];
+
+/** Rejects misspelt options and wrong types before any model is built. */
+function checkOptions(options: ModelOptions): void {
+  if (typeof options !== "object" || options === null) throw new InvalidArgumentError("model options", options, "an object");
+  for (const name of Object.keys(options)) {
+    if (!OPTION_NAMES.includes(name)) throw new InvalidArgumentError("model option", name, `one of ${OPTION_NAMES.join(", ")}`);
+  }
+  if (options.smallAngle !== undefined && typeof options.smallAngle !== "boolean") {
+    throw new InvalidArgumentError("smallAngle", options.smallAngle, "true or false");
+  }
 }
 
 /** All registered models: id, description, parameter specs and position axis. */
