@@ -117,7 +117,8 @@ export function frameToLine(stack: ImageStack, options: FrameOptions = {}): Line
   const tilt = options.tilt === undefined || options.tilt === "auto" ? refineTilt(values, saturated, roi, measureTilt(values, w, h, saturated)) : options.tilt;
   if (!Number.isFinite(tilt) || Math.abs(tilt) >= Math.PI / 4) throw new InvalidArgumentError("tilt", tilt, "an angle in radians between −π/4 and π/4, or \"auto\"");
   if (options.tilt === undefined || options.tilt === "auto") notes.push(`fringe tilt ${(tilt * 180 / Math.PI).toFixed(3)}° measured and undone`);
-  const line = averageRows(values, saturated, roi, tilt, options.maskSaturated !== false);
+  // Integer codes carry at least the quantisation variance 1/12 code² (uniform rounding error).
+  const line = averageRows(values, saturated, roi, tilt, options.maskSaturated !== false, 0, stack.integerCodes ? 1 / 12 : 0);
   if (saturatedCount > 0) {
     const cols = flaggedRanges(line.saturatedFlag).slice(0, 3).map(([a, b]) => (a === b ? `${line.pixel[a]!.toFixed(0)}` : `${line.pixel[a]!.toFixed(0)}–${line.pixel[b]!.toFixed(0)}`)).join(", ");
     warnings.push(options.maskSaturated === false
@@ -255,7 +256,7 @@ interface Averaged {
 
 /** Samples every row along the fringe normal u = (x − xc) cos θ + (y − yc) sin θ (linear
  * interpolation along the row) and averages over rows. */
-function averageRows(values: Float32Array, flags: Uint8Array, roi: RegionOfInterest, tilt: number, maskSaturated: boolean, yOffset = 0): Averaged {
+function averageRows(values: Float32Array, flags: Uint8Array, roi: RegionOfInterest, tilt: number, maskSaturated: boolean, yOffset = 0, varianceFloor = 0): Averaged {
   const { width: w, height: h } = roi;
   const xc = (w - 1) / 2;
   const yc = (h - 1) / 2 - yOffset;
@@ -311,13 +312,13 @@ function averageRows(values: Float32Array, flags: Uint8Array, roi: RegionOfInter
     const n = count[k] as number;
     if (n === 0) {
       y[k] = 0;
-      sigma[k] = Math.sqrt(Math.max(pooledVar, 1e-300)); // placeholder; the sample is masked
+      sigma[k] = Math.sqrt(Math.max(pooledVar, varianceFloor, 1e-300)); // placeholder; the sample is masked
       if (saturatedFlag[k]) masked++;
       continue;
     }
     y[k] = (sum[k] as number) / n;
     const variance = (diffCount[k] as number) >= 4 ? (diff2[k] as number) / (2 * (diffCount[k] as number)) : pooledVar;
-    sigma[k] = Math.sqrt(Math.max(variance, 1e-300) / n);
+    sigma[k] = Math.sqrt(Math.max(variance, varianceFloor, 1e-300) / n);
     mask[k] = 1;
     if (saturatedFlag[k] && maskSaturated) { mask[k] = 0; masked++; }
   }

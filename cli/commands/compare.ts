@@ -1,0 +1,37 @@
+/** `fringekit compare FILE --models A,B,... [fit settings] [--json]`. */
+import { compareFits, comparisonJson, comparisonTable, getModel, tableToText, type FitResult } from "../../src/index.js";
+import { fitter } from "../engine.js";
+import { fitSettings } from "../fitSettings.js";
+import { writeOutputFile } from "../files.js";
+import { loadData } from "../loadData.js";
+import { parseArgs } from "../parseArgs.js";
+import type { CommandOutput } from "../output.js";
+import { UsageError } from "../usageError.js";
+import { FIT_OPTIONS } from "./fit.js";
+
+/** Runs the compare command. */
+export function compareCommand(words: readonly string[]): CommandOutput {
+  const args = parseArgs(words, { ...FIT_OPTIONS, models: { kind: "value" } }, "compare");
+  if (args.positionals.length !== 1) throw new UsageError(`compare needs exactly one data file (got ${args.positionals.length})`);
+  const ids = (args.values.get("models") ?? "").split(",").map((s) => s.trim()).filter((s) => s !== "");
+  if (ids.length < 2) throw new UsageError("compare needs at least two models: --models two-slit,n-slit");
+  const path = args.positionals[0]!;
+  const loaded = loadData(path, args);
+  const fits: FitResult[] = [];
+  for (const id of ids) {
+    const model = getModel(id);
+    // --set/--fix name parameters of any of the models; each model takes the ones it has.
+    const own = (words: readonly string[]): string[] => words.filter((w) => model.parameters.some((p) => p.name === w.split("=")[0]!.trim()));
+    const settings = fitSettings(model, own(args.lists.get("set") ?? []), own(args.lists.get("fix") ?? []), args.values.get("noise"));
+    fits.push(fitter()(loaded.profile, model, settings));
+  }
+  const comparison = compareFits(fits.map((fit) => ({ fit, profile: loaded.profile })), { profile: loaded.profile });
+  const json = comparisonJson(comparison);
+  const text = args.flags.has("json")
+    ? `${JSON.stringify(json, null, 2)}\n`
+    : `${tableToText(comparisonTable(fits.map((result, i) => ({ label: ids[i]!, result })), { verdict: comparison.verdict, notes: loaded.warnings }))}\n`;
+  const out = args.values.get("out");
+  if (out !== undefined) writeOutputFile(out, out.endsWith(".json") ? `${JSON.stringify(json, null, 2)}\n` : text, [path]);
+  const allConverged = fits.every((f) => f.converged);
+  return { stdout: text, exitCode: allConverged ? 0 : 1, ...(allConverged ? {} : { error: `${path}: ${fits.filter((f) => !f.converged).map((f) => f.modelId).join(", ")} did not converge` }) };
+}

@@ -1,0 +1,52 @@
+/** `fringekit fit FILE [--model ID] [--set ...] [--fix ...] [--noise ...] [--json] [--out FILE]`. */
+import { checkCountsForPoisson, fitTable, getModel, tableToText, type FitResult, type LoadedProfile } from "../../src/index.js";
+import { fitter } from "../engine.js";
+import { fitJson } from "../fitJson.js";
+import { fitSettings } from "../fitSettings.js";
+import { writeOutputFile } from "../files.js";
+import { DATA_OPTIONS, loadData } from "../loadData.js";
+import { parseArgs, type ParsedArgs } from "../parseArgs.js";
+import type { CommandOutput } from "../output.js";
+import { UsageError } from "../usageError.js";
+
+/** Options of fit (and compare, which shares the fit settings). */
+export const FIT_OPTIONS = {
+  ...DATA_OPTIONS,
+  set: { kind: "list" },
+  fix: { kind: "list" },
+  noise: { kind: "value" },
+  json: { kind: "flag" },
+  out: { kind: "value" },
+} as const;
+
+/** Default model when --model is not given. */
+export const DEFAULT_MODEL = "two-slit";
+
+/** Fits one file with one model. */
+export function fitFile(path: string, modelId: string, args: ParsedArgs): { loaded: LoadedProfile; result: FitResult; warnings: string[] } {
+  const loaded = loadData(path, args);
+  const model = getModel(modelId);
+  const settings = fitSettings(model, args.lists.get("set") ?? [], args.lists.get("fix") ?? [], args.values.get("noise"));
+  const warnings = [...loaded.warnings];
+  if (settings.noise === "poisson") warnings.push(...checkCountsForPoisson(loaded.profile));
+  const result = fitter()(loaded.profile, model, settings);
+  return { loaded, result, warnings };
+}
+
+/** Runs the fit command. */
+export function fitCommand(words: readonly string[]): CommandOutput {
+  const args = parseArgs(words, { ...FIT_OPTIONS, model: { kind: "value" }, figure: { kind: "value" } }, "fit");
+  if (args.positionals.length !== 1) throw new UsageError(`fit needs exactly one data file (got ${args.positionals.length})`);
+  if (args.values.has("figure")) throw new UsageError("--figure is not available in this build (figure export is not wired yet)");
+  const path = args.positionals[0]!;
+  const { loaded, result, warnings } = fitFile(path, args.values.get("model") ?? DEFAULT_MODEL, args);
+  const json = fitJson(result, loaded.profile.provenance, warnings);
+  const text = args.flags.has("json") ? `${JSON.stringify(json, null, 2)}\n` : `${tableToText(fitTable(result, { source: loaded.profile.provenance?.source ?? path, notes: warnings }))}\n`;
+  const out = args.values.get("out");
+  if (out !== undefined) writeOutputFile(out, out.endsWith(".json") ? `${JSON.stringify(json, null, 2)}\n` : text, [path]);
+  return {
+    stdout: out !== undefined && !args.flags.has("json") ? `${text}` : text,
+    exitCode: result.converged ? 0 : 1,
+    ...(result.converged ? {} : { error: `${path}: the fit did not converge (${result.message}); the result was still written` }),
+  };
+}

@@ -1,0 +1,65 @@
+/**
+ * File access for the command: size checked before reading, outputs written atomically
+ * (temporary file in the same folder, then rename), never over an input file.
+ */
+import { randomBytes } from "node:crypto";
+import { readFileSync, renameSync, statSync, unlinkSync, writeFileSync, openSync, readSync, closeSync, realpathSync } from "node:fs";
+import { basename, dirname, join, resolve } from "node:path";
+import { DataError, MAX_IMAGE_BYTES, MAX_TABLE_BYTES, checkFileSize, isImage } from "../src/index.js";
+
+/**
+ * Reads a data file after checking that it exists, is a regular file and is not too large
+ * (text tables up to MAX_TABLE_BYTES, images up to MAX_IMAGE_BYTES).
+ * @param path file path as given on the command line
+ */
+export function readInputFile(path: string): Uint8Array {
+  const name = basename(path);
+  let size: number;
+  try {
+    const stat = statSync(path);
+    if (!stat.isFile()) throw new DataError(path, "not a regular file", "give the path of a data file");
+    size = stat.size;
+  } catch (error) {
+    if (error instanceof DataError) throw error;
+    const code = (error as NodeJS.ErrnoException).code;
+    throw new DataError(path, code === "ENOENT" ? "no such file" : code === "EACCES" ? "permission denied" : `cannot be read (${code ?? String(error)})`, "check the path");
+  }
+  if (size > Math.min(MAX_TABLE_BYTES, MAX_IMAGE_BYTES)) {
+    const head = new Uint8Array(8);
+    const fd = openSync(path, "r");
+    try { readSync(fd, head, 0, 8, 0); } finally { closeSync(fd); }
+    checkFileSize(size, name === path ? path : path, isImage(head) ? "image" : "table");
+  }
+  try {
+    return new Uint8Array(readFileSync(path));
+  } catch (error) {
+    throw new DataError(path, `cannot be read (${(error as NodeJS.ErrnoException).code ?? String(error)})`, "check the path and its permissions");
+  }
+}
+
+/**
+ * Writes text or bytes atomically: to a temporary file beside the target, then renamed over it.
+ * Refuses to overwrite any of the input files.
+ * @param path    output path
+ * @param content text (UTF-8) or bytes
+ * @param inputs  input paths that must not be overwritten
+ */
+export function writeOutputFile(path: string, content: string | Uint8Array, inputs: readonly string[] = []): void {
+  const target = resolve(path);
+  for (const input of inputs) {
+    if (sameFile(target, input)) throw new DataError(path, "the output file is one of the input files", "choose another output name; input files are never changed");
+  }
+  const temporary = join(dirname(target), `.${basename(target)}.${randomBytes(6).toString("hex")}.tmp`);
+  try {
+    writeFileSync(temporary, content, { flag: "wx" });
+    renameSync(temporary, target);
+  } catch (error) {
+    try { unlinkSync(temporary); } catch { /* nothing was written */ }
+    throw new DataError(path, `cannot be written (${(error as NodeJS.ErrnoException).code ?? String(error)})`, "check that the folder exists and is writable");
+  }
+}
+
+function sameFile(target: string, input: string): boolean {
+  const real = (p: string): string => { try { return realpathSync(p); } catch { return resolve(p); } };
+  return real(target) === real(input);
+}

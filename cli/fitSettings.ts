@@ -1,0 +1,81 @@
+/**
+ * --set, --fix and --noise words → fit options in SI, checked against the model's parameters.
+ */
+import { InvalidArgumentError, parseQuantity, type Model, type NoiseModelId, type ParameterSpec } from "../src/index.js";
+import type { CommandFitOptions } from "./engine.js";
+import { UsageError } from "./usageError.js";
+
+const NOISE = ["auto", "poisson", "gaussian", "robust"] as const;
+
+/**
+ * Builds fit options from the command line.
+ * @param model the model being fitted
+ * @param sets  "NAME=VALUE[UNIT]" words of --set (starting values)
+ * @param fixes "NAME" or "NAME=VALUE[UNIT]" words of --fix
+ * @param noise the --noise word
+ */
+export function fitSettings(model: Model, sets: readonly string[], fixes: readonly string[], noise: string | undefined): CommandFitOptions {
+  const options: CommandFitOptions = {};
+  const start: Record<string, number> = {};
+  const fix: Record<string, number> = {};
+  for (const word of sets) {
+    const [name, value] = splitAssignment(word, "--set", true);
+    const spec = findParameter(model, name, "--set");
+    start[name] = parseParameterValue(spec, value!, `--set ${name}`);
+    // A value set for a parameter that is normally held fixed (e.g. wavelength) is used as given.
+    if (spec.fixedByDefault) fix[name] = start[name]!;
+  }
+  for (const word of fixes) {
+    const [name, value] = splitAssignment(word, "--fix", false);
+    const spec = findParameter(model, name, "--fix");
+    fix[name] = value !== undefined ? parseParameterValue(spec, value, `--fix ${name}`) : (start[name] ?? spec.default);
+  }
+  for (const name of Object.keys(fix)) delete start[name];
+  if (Object.keys(start).length > 0) options.start = start;
+  if (Object.keys(fix).length > 0) options.fix = fix;
+  if (noise !== undefined) {
+    if (!(NOISE as readonly string[]).includes(noise)) throw new UsageError(`invalid --noise: "${noise}" (one of ${NOISE.join(", ")})`);
+    options.noise = noise as NoiseModelId | "auto";
+  }
+  return options;
+}
+
+function splitAssignment(word: string, option: string, valueRequired: boolean): [string, string | undefined] {
+  const eq = word.indexOf("=");
+  if (eq < 0) {
+    if (valueRequired) throw new UsageError(`invalid ${option} "${word}": write NAME=VALUE[UNIT], e.g. ${option} wavelength=632.8nm`);
+    return [word.trim(), undefined];
+  }
+  const name = word.slice(0, eq).trim();
+  const value = word.slice(eq + 1).trim();
+  if (name === "" || value === "") throw new UsageError(`invalid ${option} "${word}": write NAME=VALUE[UNIT], e.g. ${option} wavelength=632.8nm`);
+  return [name, value];
+}
+
+function findParameter(model: Model, name: string, option: string): ParameterSpec {
+  const spec = model.parameters.find((p) => p.name === name);
+  if (!spec) throw new UsageError(`invalid ${option}: model "${model.id}" has no parameter "${name}" (parameters: ${model.parameters.map((p) => p.name).join(", ")})`);
+  return spec;
+}
+
+/**
+ * Parses a parameter value with an optional unit into SI: lengths in any length unit, angles in
+ * rad/mrad/deg, dimensionless numbers bare; other units (counts, ...) bare or in their SI symbol.
+ * @param spec     the parameter
+ * @param text     "632.8nm", "0.5 mm", "0.3", "3"
+ * @param argument name for messages
+ */
+export function parseParameterValue(spec: ParameterSpec, text: string, argument: string): number {
+  let value: number;
+  if (spec.unit === "m") value = parseQuantity(text, "length", argument).value;
+  else if (spec.unit === "rad") value = parseQuantity(text, "angle", argument).value;
+  else if (spec.unit === "1" || spec.unit === "") value = parseQuantity(text, "dimensionless", argument).value;
+  else {
+    const match = /^([+-]?(?:\d+\.?\d*|\.\d+)(?:[eE][+-]?\d+)?)\s*(.*)$/.exec(text.trim());
+    if (!match || (match[2] !== "" && match[2] !== spec.unit)) throw new InvalidArgumentError(argument, text, `a number in ${spec.unit}`);
+    value = Number(match[1]);
+  }
+  if (spec.integer && !Number.isInteger(value)) throw new InvalidArgumentError(argument, text, "a whole number");
+  if (value < spec.lower || value > spec.upper) throw new InvalidArgumentError(argument, text, `between ${spec.lower} and ${spec.upper} ${spec.unit}`);
+  return value;
+}

@@ -1,0 +1,83 @@
+/**
+ * Options shared by the commands that read data, and the loading itself.
+ */
+import { basename } from "node:path";
+import { parseQuantity, readImage, readProfile, type ImageStack, type LoadedProfile, type ProfileOptions, type RegionOfInterest } from "../src/index.js";
+import { readInputFile } from "./files.js";
+import type { OptionSpec, ParsedArgs } from "./parseArgs.js";
+import { UsageError } from "./usageError.js";
+
+/** Options of every command that reads a profile. */
+export const DATA_OPTIONS: Record<string, OptionSpec> = {
+  "pixel-pitch": { kind: "value", unitWord: true },
+  "mask-saturated": { kind: "flag" },
+  x: { kind: "value" },
+  y: { kind: "value" },
+  sigma: { kind: "value" },
+  "x-unit": { kind: "value" },
+  roi: { kind: "value" },
+  dark: { kind: "value" },
+  flat: { kind: "value" },
+  tilt: { kind: "value", unitWord: true },
+  page: { kind: "value" },
+};
+
+/**
+ * Turns the data options into ProfileOptions (SI), reading dark and flat frames.
+ * @param args parsed command line
+ * @param source name of the data file (for messages)
+ */
+export function profileOptions(args: ParsedArgs, source: string): ProfileOptions {
+  const options: ProfileOptions = { source };
+  const pitch = args.values.get("pixel-pitch");
+  if (pitch !== undefined) {
+    const value = parseQuantity(pitch, "length", "--pixel-pitch").value;
+    if (!(value > 0)) throw new UsageError(`invalid --pixel-pitch: "${pitch}" (a positive length, e.g. 5.5 um)`);
+    options.pixelPitch = value;
+  }
+  if (args.flags.has("mask-saturated")) options.maskSaturated = true;
+  const x = args.values.get("x"), y = args.values.get("y"), sigma = args.values.get("sigma");
+  if (x !== undefined) options.x = x;
+  if (y !== undefined) options.y = y;
+  if (sigma !== undefined) options.sigma = sigma === "none" ? false : sigma;
+  const xUnit = args.values.get("x-unit");
+  if (xUnit !== undefined) options.xUnit = xUnit;
+  const roi = args.values.get("roi");
+  if (roi !== undefined) options.roi = parseRoi(roi);
+  const tilt = args.values.get("tilt");
+  if (tilt !== undefined) options.tilt = tilt === "auto" ? "auto" : parseQuantity(tilt, "angle", "--tilt", "deg").value;
+  const page = args.values.get("page");
+  if (page !== undefined) {
+    if (page !== "mean" && !/^\d+$/.test(page)) throw new UsageError(`invalid --page: "${page}" (a page number from 1, or "mean")`);
+    options.page = page === "mean" ? "mean" : Number(page);
+  }
+  const dark = args.values.get("dark");
+  if (dark !== undefined) options.dark = readFrame(dark);
+  const flat = args.values.get("flat");
+  if (flat !== undefined) options.flat = readFrame(flat);
+  return options;
+}
+
+/** "X,Y,WIDTH,HEIGHT" in pixels → RegionOfInterest. */
+export function parseRoi(text: string): RegionOfInterest {
+  const parts = text.split(",").map((p) => p.trim());
+  if (parts.length !== 4 || parts.some((p) => !/^\d+$/.test(p))) throw new UsageError(`invalid --roi: "${text}" (X,Y,WIDTH,HEIGHT in whole pixels, e.g. 0,900,2048,200)`);
+  const [x, y, width, height] = parts.map(Number) as [number, number, number, number];
+  return { x, y, width, height };
+}
+
+function readFrame(path: string): ImageStack {
+  return readImage(readInputFile(path), path);
+}
+
+/**
+ * Reads a data file (table or frame) into a profile.
+ * @param path file path
+ * @param args parsed command line with the data options
+ */
+export function loadData(path: string, args: ParsedArgs): LoadedProfile {
+  const bytes = readInputFile(path);
+  const loaded = readProfile(bytes, profileOptions(args, path));
+  if (loaded.profile.provenance) loaded.profile.provenance.source = basename(path);
+  return loaded;
+}

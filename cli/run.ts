@@ -1,0 +1,79 @@
+/**
+ * The `fringekit` command line: dispatches to a subcommand, prints one-line errors (no stack
+ * traces) and returns 0 (success), 1 (fit did not converge, result written) or 2 (bad input/usage).
+ */
+import { FringekitError } from "../src/index.js";
+import { batchCommand } from "./commands/batch.js";
+import { compareCommand } from "./commands/compare.js";
+import { fitCommand } from "./commands/fit.js";
+import { kernelCommand } from "./commands/kernel.js";
+import { modelsCommand } from "./commands/models.js";
+import { profileCommand } from "./commands/profile.js";
+import { replayCommand } from "./commands/replay.js";
+import type { CommandOutput } from "./output.js";
+import { USAGE } from "./usage.js";
+import { UsageError } from "./usageError.js";
+
+const COMMANDS: Record<string, (words: readonly string[]) => CommandOutput | Promise<CommandOutput>> = {
+  models: modelsCommand,
+  fit: fitCommand,
+  compare: compareCommand,
+  profile: profileCommand,
+  batch: batchCommand,
+  kernel: kernelCommand,
+  replay: replayCommand,
+};
+
+/** Where the command writes (the process streams, or a capture in tests). */
+export interface CommandStreams {
+  stdout(text: string): void;
+  stderr(text: string): void;
+}
+
+const PROCESS_STREAMS: CommandStreams = {
+  stdout: (text) => void process.stdout.write(text),
+  stderr: (text) => void process.stderr.write(text),
+};
+
+/**
+ * Runs the command line and returns the exit code (does not exit, for tests).
+ * @param argv words after "fringekit"
+ * @param io   output streams
+ */
+export async function run(argv: readonly string[], io: CommandStreams = PROCESS_STREAMS): Promise<number> {
+  const [name, ...rest] = argv;
+  if (name === undefined || name === "--help" || name === "-h" || name === "help") {
+    io.stdout(USAGE);
+    return name === undefined ? 2 : 0;
+  }
+  if (name === "--version") {
+    io.stdout("fringekit 0.1.0\n");
+    return 0;
+  }
+  const command = Object.hasOwn(COMMANDS, name) ? COMMANDS[name] : undefined;
+  if (!command) {
+    io.stderr(`fringekit: unknown command "${name}" (commands: ${Object.keys(COMMANDS).join(", ")}); see fringekit --help\n`);
+    return 2;
+  }
+  if (rest.includes("--help") || rest.includes("-h")) {
+    io.stdout(USAGE);
+    return 0;
+  }
+  try {
+    const output = await command(rest);
+    if (output.stdout) io.stdout(output.stdout);
+    for (const line of output.stderr ?? []) io.stderr(`${line}\n`);
+    if (output.error) io.stderr(`fringekit: ${output.error}\n`);
+    return output.exitCode;
+  } catch (error) {
+    io.stderr(`fringekit ${name}: ${oneLine(error)}\n`);
+    return 2;
+  }
+}
+
+function oneLine(error: unknown): string {
+  if (error instanceof UsageError) return `${error.message}; see fringekit --help`;
+  if (error instanceof FringekitError) return error.message.replace(/\s*\n\s*/g, " ");
+  const text = error instanceof Error ? error.message : String(error);
+  return `internal error: ${text.replace(/\s*\n\s*/g, " ")} (please report this with the input file)`;
+}
