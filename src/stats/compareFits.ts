@@ -1,101 +1,16 @@
 /**
  * compareFits: one call from several fits of the same data to a ranked table, nested-model
- * tests, residual diagnostics and a plain-words verdict.
- * Strength words follow the ΔAIC rules of thumb of Burnham & Anderson (Model Selection and
- * Multimodel Inference, 2002, §2.6): below 2 indistinct, above 10 no support for the worse model.
+ * tests, residual diagnostics and a plain-words verdict (see verdict.ts).
  */
 import { InvalidArgumentError } from "../errors.js";
 import type { FitResult } from "../fit/types.js";
 import type { Profile } from "../profile.js";
+import type { CompareOptions, ComparisonEntry, ComparisonJson, ComparisonResult, Criterion, LabelledEntry, ModelComparisonRow } from "./comparisonTypes.js";
 import { akaikeWeights, fitCriteria } from "./criteria.js";
-import { farFieldValidity, isFarFieldModel } from "./farField.js";
 import { profileFingerprint } from "./fingerprint.js";
 import { isNestedByParameters, nestedTest, type NestedTestResult } from "./nested.js";
-import { formatP, residualDiagnostics, type ResidualDiagnostics } from "./residualDiagnostics.js";
-
-/** A fit to compare, optionally with the profile it was fitted to and a label. */
-export interface ComparisonEntry {
-  fit: FitResult;
-  /** The data the fit used; when given for every entry, the data fingerprints must agree. */
-  profile?: Profile;
-  /** Row name (default: the model id, made unique). */
-  label?: string;
-}
-
-export type Criterion = "aic" | "aicc" | "bic";
-
-export interface CompareOptions {
-  /** The data all fits used (positions for the periodicity test, fingerprint check). */
-  profile?: Profile;
-  /** Criterion that ranks the models and drives the weights (default "aic"). */
-  criterion?: Criterion;
-  /** Pairs [simpler, larger] (labels) the caller asserts are nested although the model ids differ. */
-  nested?: [string, string][];
-  /** Significance level for the nested tests and residual diagnostics (default 0.01). */
-  alpha?: number;
-}
-
-export interface ModelComparisonRow {
-  label: string;
-  modelId: string;
-  converged: boolean;
-  n: number;
-  k: number;
-  logLikelihood: number;
-  chi2: number;
-  reducedChi2: number;
-  aic: number;
-  aicc: number;
-  bic: number;
-  /** Differences to the best converged fit, for each criterion. */
-  deltaAic: number;
-  deltaAicc: number;
-  deltaBic: number;
-  /** Akaike weight under the chosen criterion (0 for fits that did not converge). */
-  weight: number;
-  diagnostics: ResidualDiagnostics;
-}
-
-export interface ComparisonResult {
-  criterion: Criterion;
-  noise: FitResult["noise"];
-  /** Rows sorted best first by the criterion (fits that did not converge last). */
-  rows: ModelComparisonRow[];
-  /** Label of the preferred fit. */
-  preferred: string;
-  /** Nested-model tests for every pair found nested or asserted. */
-  tests: NestedTestResult[];
-  /** Short warnings, also woven into the verdict. */
-  warnings: string[];
-  /** Plain-words conclusion with the numbers behind it. */
-  verdict: string;
-}
-
-/** Shape of `fringekit compare --json`. */
-export interface ComparisonJson {
-  ranking: {
-    model: string;
-    label: string;
-    converged: boolean;
-    n: number;
-    k: number;
-    logLikelihood: number;
-    chi2: number;
-    reducedChi2: number;
-    aic: number;
-    aicc: number;
-    bic: number;
-    deltaAic: number;
-    deltaBic: number;
-    weight: number;
-    residualsStructured: boolean;
-  }[];
-  preferred: string;
-  criterion: Criterion;
-  tests: NestedTestResult[];
-  warnings: string[];
-  verdict: string;
-}
+import { residualDiagnostics } from "./residualDiagnostics.js";
+import { collectWarnings, writeVerdict } from "./verdict.js";
 
 /**
  * Compares fits of one profile by information criteria, nested tests and residual diagnostics.
@@ -183,13 +98,7 @@ export function comparisonJson(result: ComparisonResult): ComparisonJson {
   };
 }
 
-interface Entry {
-  fit: FitResult;
-  profile?: Profile;
-  label: string;
-}
-
-function normaliseEntries(fits: readonly (FitResult | ComparisonEntry)[], shared: Profile | undefined): Entry[] {
+function normaliseEntries(fits: readonly (FitResult | ComparisonEntry)[], shared: Profile | undefined): LabelledEntry[] {
   if (!Array.isArray(fits) || fits.length === 0) throw new InvalidArgumentError("fits", fits, "a non-empty array of fit results");
   const seen = new Map<string, number>();
   return fits.map((item, i) => {
@@ -205,7 +114,7 @@ function normaliseEntries(fits: readonly (FitResult | ComparisonEntry)[], shared
   });
 }
 
-function checkSameData(entries: Entry[]): void {
+function checkSameData(entries: LabelledEntry[]): void {
   const first = entries[0];
   const firstPrint = first.profile ? profileFingerprint(first.profile) : undefined;
   for (const other of entries.slice(1)) {
@@ -234,7 +143,7 @@ function checkSameData(entries: Entry[]): void {
   }
 }
 
-function nestedPairs(entries: Entry[], asserted: [string, string][]): NestedTestResult[] {
+function nestedPairs(entries: LabelledEntry[], asserted: [string, string][]): NestedTestResult[] {
   const byLabel = new Map(entries.map((e) => [e.label, e]));
   const tests: NestedTestResult[] = [];
   const done = new Set<string>();
@@ -254,71 +163,4 @@ function nestedPairs(entries: Entry[], asserted: [string, string][]): NestedTest
     }
   }
   return tests;
-}
-
-function collectWarnings(rows: ModelComparisonRow[], entries: Entry[]): string[] {
-  const warnings: string[] = [];
-  const best = rows[0];
-  for (const row of rows) {
-    if (!row.converged) warnings.push(`${row.label} did not converge and is left out of the ranking`);
-  }
-  if (best.diagnostics.structured) {
-    const hint = isFarFieldModel(best.modelId) ? ": consider the near-field model" : ": consider a model with more physics (finite pixels, blur, bandwidth)";
-    warnings.push(`residuals of ${best.label} still structured — ${best.diagnostics.reasons.join("; ")}${hint}`);
-  }
-  if (best.reducedChi2 > 1.5 && entries[0].fit.noise !== "robust") {
-    warnings.push(`reduced χ² of ${best.label} is ${best.reducedChi2.toFixed(2)}: the scatter is larger than the noise model says, so uncertainties from an unscaled covariance are too small`);
-  } else if (best.reducedChi2 < 0.5) {
-    warnings.push(`reduced χ² of ${best.label} is ${best.reducedChi2.toFixed(2)}: σ seems overestimated`);
-  }
-  const bestFit = entries.find((e) => e.label === best.label)!.fit;
-  if (isFarFieldModel(best.modelId)) {
-    try {
-      const validity = farFieldValidity(bestFit);
-      if (validity.warning) warnings.push(validity.warning);
-    } catch {
-      // The model lacks width/wavelength/distance: nothing to check.
-    }
-  }
-  const fitWarnings = bestFit.warnings;
-  for (const w of fitWarnings) warnings.push(`${best.label}: ${w.message}`);
-  return warnings;
-}
-
-function strength(delta: number): string {
-  if (delta < 2) return "the data hardly tell them apart";
-  if (delta < 4) return "weak preference";
-  if (delta < 10) return "clear preference";
-  return "decisive preference";
-}
-
-function writeVerdict(rows: ModelComparisonRow[], tests: NestedTestResult[], warnings: string[], criterion: Criterion, alpha: number): string {
-  const name = criterion.toUpperCase().replace("AICC", "AICc");
-  const deltaKey = ({ aic: "deltaAic", aicc: "deltaAicc", bic: "deltaBic" } as const)[criterion];
-  const best = rows[0];
-  const parts: string[] = [];
-  const ranked = rows.filter((r) => r.converged);
-  if (ranked.length === 1) {
-    parts.push(`Only ${best.label} can be ranked (${name} ${best[criterion].toFixed(1)}, reduced χ² ${best.reducedChi2.toFixed(3)}).`);
-  } else {
-    const second = ranked[1];
-    const delta = second[deltaKey];
-    parts.push(`${best.label} is preferred over ${second.label}: Δ${name} = ${delta.toFixed(1)} (${strength(delta)}; ` +
-      `weight ${best.weight.toFixed(3)} against ${second.weight.toFixed(3)}).`);
-    if (delta < 2 && second.k < best.k) parts.push(`With so small a difference the simpler ${second.label} is as good a description.`);
-    parts.push(`Reduced χ²: ${ranked.map((r) => `${r.label} ${r.reducedChi2.toFixed(3)}`).join(", ")}.`);
-  }
-  for (const t of tests) {
-    const significant = t.likelihoodRatioPValue < alpha;
-    parts.push(`${t.larger} against ${t.simpler} (${t.extraParameters} extra parameter${t.extraParameters > 1 ? "s" : ""}): ` +
-      `likelihood ratio ${t.likelihoodRatio.toFixed(1)}, p = ${formatP(t.likelihoodRatioPValue)}; F = ${Number.isFinite(t.f) ? t.f.toFixed(2) : "n/a"}, ` +
-      `p = ${formatP(t.fPValue)} — the extra parameter${t.extraParameters > 1 ? "s are" : " is"} ${significant ? "needed" : "not needed"} at the ${alpha} level.`);
-  }
-  const d = best.diagnostics;
-  if (!d.structured) {
-    const periodic = d.periodicity ? `, power at the fringe frequency ${d.periodicity.ratio.toFixed(1)} × noise floor (p = ${formatP(d.periodicity.pValue)})` : "";
-    parts.push(`Residuals of ${best.label} look like noise (runs test p = ${formatP(d.runs.pValue)}, Durbin–Watson ${d.durbinWatson.toFixed(2)}${periodic}).`);
-  }
-  if (warnings.length) parts.push(`Warning: ${warnings.join("; ")}.`);
-  return parts.join(" ");
 }

@@ -11,6 +11,7 @@ export * from "./nested.js";
 export * from "./fitParameters.js";
 export * from "./residualTests.js";
 export * from "./residualDiagnostics.js";
+export * from "./comparisonTypes.js";
 export * from "./compareFits.js";
 export * from "./quantity.js";
 export * from "./fringeGeometry.js";

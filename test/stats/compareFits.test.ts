@@ -35,6 +35,8 @@ describe("compareFits", () => {
     const result = compareFits([far], { profile });
     expect(result.preferred).toBe("two-slit");
     expect(result.verdict).toMatch(/residuals of two-slit still structured .*leftover power at the fringe frequency.*consider the near-field model/);
+    // χ² = 800 with ν = 396: far in the upper tail of χ²(396), so the scatter warning appears.
+    expect(result.warnings.some((w) => /reduced χ² of two-slit is 2\.02 \(p = < 1e-12\): the scatter is larger/.test(w))).toBe(true);
   });
   it("compareFits(fits, { nested }) runs the likelihood-ratio and F tests on asserted pairs", () => {
     const result = compareFits([far, near], { profile, nested: [["two-slit", "two-slit-fresnel"]] });

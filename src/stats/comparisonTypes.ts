@@ -1,0 +1,96 @@
+/** Types of model comparison: entries, options, table rows, result and the compare --json shape. */
+import type { FitResult } from "../fit/types.js";
+import type { Profile } from "../profile.js";
+import type { NestedTestResult } from "./nested.js";
+import type { ResidualDiagnostics } from "./residualDiagnostics.js";
+
+/** A fit to compare, optionally with the profile it was fitted to and a label. */
+export interface ComparisonEntry {
+  fit: FitResult;
+  /** The data the fit used; when given for every entry, the data fingerprints must agree. */
+  profile?: Profile;
+  /** Row name (default: the model id, made unique). */
+  label?: string;
+}
+
+export type Criterion = "aic" | "aicc" | "bic";
+
+export interface CompareOptions {
+  /** The data all fits used (positions for the periodicity test, fingerprint check). */
+  profile?: Profile;
+  /** Criterion that ranks the models and drives the weights (default "aic"). */
+  criterion?: Criterion;
+  /** Pairs [simpler, larger] (labels) the caller asserts are nested although the model ids differ. */
+  nested?: [string, string][];
+  /** Significance level for the nested tests and residual diagnostics (default 0.01). */
+  alpha?: number;
+}
+
+export interface ModelComparisonRow {
+  label: string;
+  modelId: string;
+  converged: boolean;
+  n: number;
+  k: number;
+  logLikelihood: number;
+  chi2: number;
+  reducedChi2: number;
+  aic: number;
+  aicc: number;
+  bic: number;
+  /** Differences to the best converged fit, for each criterion. */
+  deltaAic: number;
+  deltaAicc: number;
+  deltaBic: number;
+  /** Akaike weight under the chosen criterion (0 for fits that did not converge). */
+  weight: number;
+  diagnostics: ResidualDiagnostics;
+}
+
+export interface ComparisonResult {
+  criterion: Criterion;
+  noise: FitResult["noise"];
+  /** Rows sorted best first by the criterion (fits that did not converge last). */
+  rows: ModelComparisonRow[];
+  /** Label of the preferred fit. */
+  preferred: string;
+  /** Nested-model tests for every pair found nested or asserted. */
+  tests: NestedTestResult[];
+  /** Short warnings, also woven into the verdict. */
+  warnings: string[];
+  /** Plain-words conclusion with the numbers behind it. */
+  verdict: string;
+}
+
+/** Shape of `fringekit compare --json`. */
+export interface ComparisonJson {
+  ranking: {
+    model: string;
+    label: string;
+    converged: boolean;
+    n: number;
+    k: number;
+    logLikelihood: number;
+    chi2: number;
+    reducedChi2: number;
+    aic: number;
+    aicc: number;
+    bic: number;
+    deltaAic: number;
+    deltaBic: number;
+    weight: number;
+    residualsStructured: boolean;
+  }[];
+  preferred: string;
+  criterion: Criterion;
+  tests: NestedTestResult[];
+  warnings: string[];
+  verdict: string;
+}
+
+/** A fit with its (unique) label and the profile it used, once normalised. */
+export interface LabelledEntry {
+  fit: FitResult;
+  profile?: Profile;
+  label: string;
+}
