@@ -21,3 +21,5 @@ export * from "./farField.js";
 export * from "./sourceSize.js";
 export * from "./localVisibility.js";
 export * from "./derivedQuantities.js";
+export * from "./sourceModel.js";
+export * from "./jointSourceSize.js";

@@ -4,7 +4,8 @@ import { describe, expect, it } from "vitest";
 import { fitProfile } from "../../src/fit/index.js";
 import { getModel, paramVector, pixelPositions, simulateProfile } from "../../src/physics/index.js";
 import {
-  coherenceLength, coherenceScanProfile, compareFits, degreeOfCoherence, farFieldValidity, fringeGeometry, fringeMaxima, sourceSize,
+  coherenceLength, coherenceScanProfile, compareFits, degreeOfCoherence, farFieldValidity, fitSourceSizeJointly, fringeGeometry, fringeMaxima,
+  sourceSize, twoSlitSourceModel,
 } from "../../src/stats/index.js";
 import { seeded } from "./fakeFit.js";
 
@@ -162,4 +163,31 @@ describe("source size from a coherence scan", () => {
       expect(covered).toBeGreaterThanOrEqual(33);
     });
   }
+});
+
+describe("source size from raw profiles fitted jointly", () => {
+  it("fitSourceSizeJointly(scans, 'disc') recovers the simulated diameter within its interval", () => {
+    const diameter = 0.5e-3;
+    const sourceDistance = 1;
+    const wavelength = 550e-9;
+    const model = twoSlitSourceModel("disc");
+    const x = pixelPositions(1024, 5.5e-6);
+    const separations = [0.2e-3, 0.4e-3, 0.6e-3, 0.8e-3, 1.0e-3];
+    let covered = 0;
+    const runs = 6;
+    for (let seed = 1; seed <= runs; seed++) {
+      const scans = separations.map((separation, i) => {
+        const truth = { amplitude: 5000, center: 1e-5 * i, separation, width: 0.08e-3, visibility: 0.95, phase: 0.1 * i, wavelength, distance: 1, background: 100, diameter, sourceDistance };
+        const profile = simulateProfile(model, paramVector(model, truth), x, { noise: "poisson", seed: 100 * seed + i });
+        return { profile, separation, start: { amplitude: 4800, center: 1e-5 * i, phase: 0.1 * i, background: 90, width: 0.08e-3 } };
+      });
+      const result = fitSourceSizeJointly(scans, "disc", { start: { diameter: 0.6e-3, visibility: 0.9, wavelength, distance: 1, sourceDistance } });
+      expect(result.joint.converged).toBe(true);
+      expect(result.size.unit).toBe("m");
+      if (result.interval[0] <= diameter && diameter <= result.interval[1]) covered++;
+      expect(Math.abs(result.size.value - diameter)).toBeLessThan(4 * result.size.uncertainty);
+    }
+    // Nominal 95 % intervals: at least 5 of 6 should cover (binomial, p ≈ 0.97).
+    expect(covered).toBeGreaterThanOrEqual(5);
+  });
 });
