@@ -11,7 +11,16 @@ export function lengthAxis(values: ArrayLike<number>, quantity: string, symbol: 
   return { scale: 10 ** -prefix.exponent, unit, title: `${quantity} <i>${symbol}</i> (${unit})` };
 }
 
-/** Title of an intensity axis; the unit is the profile's (user text, escaped). */
-export function intensityTitle(yUnit: string): string {
-  return yUnit ? `Intensity <i>I</i> (${plotlyText(yUnit)})` : "Intensity <i>I</i>";
+/**
+ * Scale and title of an intensity axis. Counts above 10⁴ are shown in 10³ counts, so tick
+ * labels stay short numbers ("20", not "20k" or "20000"); the unit is the profile's (user text, escaped).
+ */
+export function intensityAxis(values: ArrayLike<number>, yUnit: string): { scale: number; title: string } {
+  let largest = 0;
+  for (let i = 0; i < values.length; i++) if (Number.isFinite(values[i])) largest = Math.max(largest, Math.abs(values[i]));
+  const power = largest >= 1e4 ? 3 * Math.floor(Math.log10(largest) / 3) : 0;
+  const factor = power === 0 ? "" : `10<sup>${power}</sup> `;
+  const unit = yUnit ? plotlyText(yUnit) : "";
+  const inner = `${factor}${unit}`.trim();
+  return { scale: 10 ** -power, title: inner ? `Intensity <i>I</i> (${inner})` : "Intensity <i>I</i>" };
 }

@@ -5,7 +5,7 @@
 import { InvalidArgumentError } from "../../errors.js";
 import type { Profile } from "../../profile.js";
 import type { LabelledFit } from "../comparisonTable.js";
-import { intensityTitle, lengthAxis } from "./axes.js";
+import { intensityAxis, lengthAxis } from "./axes.js";
 import { plainArray, plotlyText, STATIC_CONFIG, withMimeBundle, type FigureSpec } from "./figureSpec.js";
 import { symmetricLimit } from "./fitFigure.js";
 import { axisStyle, baseLayout, resolveSize, type FigureSize } from "./journal.js";
@@ -28,6 +28,7 @@ export function comparisonFigure(profile: Profile, fits: readonly LabelledFit[],
   }
   const size = resolveSize(options, 80, "double");
   const axis = lengthAxis(profile.x, "Position", "x");
+  const yAxis = intensityAxis(profile.y, profile.yUnit);
   const used: number[] = [];
   const excluded: number[] = [];
   for (let i = 0; i < profile.x.length; i++) (profile.mask && profile.mask[i] === 0 ? excluded : used).push(i);
@@ -35,13 +36,13 @@ export function comparisonFigure(profile: Profile, fits: readonly LabelledFit[],
   const markerPx = profile.x.length > 500 ? 2 : 3.5;
   const data: Record<string, unknown>[] = [
     {
-      type: "scatter", mode: "markers", name: "data", x: pick(profile.x, used, axis.scale), y: pick(profile.y, used),
+      type: "scatter", mode: "markers", name: "data", x: pick(profile.x, used, axis.scale), y: pick(profile.y, used, yAxis.scale),
       marker: { color: INK, size: markerPx, line: { width: 0 } }, xaxis: "x", yaxis: "y",
     },
   ];
   if (excluded.length) {
     data.push({
-      type: "scatter", mode: "markers", name: "excluded", x: pick(profile.x, excluded, axis.scale), y: pick(profile.y, excluded),
+      type: "scatter", mode: "markers", name: "excluded", x: pick(profile.x, excluded, axis.scale), y: pick(profile.y, excluded, yAxis.scale),
       marker: { color: EXCLUDED, size: markerPx + 1.5, symbol: "x-thin-open", line: { width: 0.8, color: EXCLUDED } }, xaxis: "x", yaxis: "y",
     });
   }
@@ -53,7 +54,7 @@ export function comparisonFigure(profile: Profile, fits: readonly LabelledFit[],
     limit = Math.max(limit, symmetricLimit(residuals));
     data.push({
       type: "scatter", mode: "lines", name: plotlyText(f.label), legendgroup: `m${i}`,
-      x: plainArray(profile.x, axis.scale), y: plainArray(f.result.model),
+      x: plainArray(profile.x, axis.scale), y: plainArray(f.result.model, yAxis.scale),
       line: { color: style.color, width: 1.2, dash: style.dash }, xaxis: "x", yaxis: "y",
     });
     data.push({
@@ -65,7 +66,7 @@ export function comparisonFigure(profile: Profile, fits: readonly LabelledFit[],
   const layout = {
     ...baseLayout(size, { kind: "comparison", models: fits.map((f) => f.result.modelId), xUnit: axis.unit }),
     xaxis: axisStyle("", { domain: [0, 1], anchor: "y", matches: "x2", showticklabels: false, title: undefined }),
-    yaxis: axisStyle(intensityTitle(profile.yUnit), { domain: [0.36, 1], anchor: "x", rangemode: "tozero" }),
+    yaxis: axisStyle(yAxis.title, { domain: [0.36, 1], anchor: "x", rangemode: "tozero" }),
     xaxis2: axisStyle(axis.title, { domain: [0, 1], anchor: "y2" }),
     yaxis2: axisStyle("(<i>I</i>−<i>f</i>)/<i>σ</i>", { domain: [0, 0.28], anchor: "x2", range: [-limit, limit], nticks: 5 }),
     shapes: [{ type: "line", xref: "x2 domain", x0: 0, x1: 1, yref: "y2", y0: 0, y1: 0, line: { color: GUIDE, width: 0.75 } }],

@@ -5,7 +5,7 @@
 import { InvalidArgumentError } from "../../errors.js";
 import type { FitResult } from "../../fit/types.js";
 import type { Profile } from "../../profile.js";
-import { intensityTitle, lengthAxis } from "./axes.js";
+import { intensityAxis, lengthAxis } from "./axes.js";
 import { plainArray, plotlyText, STATIC_CONFIG, withMimeBundle, type FigureSpec } from "./figureSpec.js";
 import { axisStyle, baseLayout, resolveSize, type FigureSize } from "./journal.js";
 import { EXCLUDED, GUIDE, INK, seriesStyle } from "./palette.js";
@@ -28,6 +28,7 @@ export function fitFigure(profile: Profile, result: FitResult, options: FitFigur
   checkLengths(profile, result);
   const size = resolveSize(options, 70);
   const axis = lengthAxis(profile.x, "Position", "x");
+  const yAxis = intensityAxis(profile.y, profile.yUnit);
   const used: number[] = [];
   const excluded: number[] = [];
   for (let i = 0; i < profile.x.length; i++) (profile.mask && profile.mask[i] === 0 ? excluded : used).push(i);
@@ -38,24 +39,24 @@ export function fitFigure(profile: Profile, result: FitResult, options: FitFigur
   const data: Record<string, unknown>[] = [];
   data.push({
     type: "scatter", mode: "markers", name: plotlyText(options.dataLabel ?? "data"),
-    x: pick(profile.x, used, axis.scale), y: pick(profile.y, used),
+    x: pick(profile.x, used, axis.scale), y: pick(profile.y, used, yAxis.scale),
     marker: { color: INK, size: markerPx, line: { width: 0 } },
     ...(profile.sigma && used.length <= 200
-      ? { error_y: { type: "data", array: pick(profile.sigma, used), color: INK, thickness: 0.6, width: 0 } }
+      ? { error_y: { type: "data", array: pick(profile.sigma, used, yAxis.scale), color: INK, thickness: 0.6, width: 0 } }
       : {}),
     xaxis: "x", yaxis: "y",
   });
   if (excluded.length) {
     data.push({
       type: "scatter", mode: "markers", name: "excluded",
-      x: pick(profile.x, excluded, axis.scale), y: pick(profile.y, excluded),
+      x: pick(profile.x, excluded, axis.scale), y: pick(profile.y, excluded, yAxis.scale),
       marker: { color: EXCLUDED, size: markerPx + 1.5, symbol: "x-thin-open", line: { width: 0.8, color: EXCLUDED } },
       xaxis: "x", yaxis: "y",
     });
   }
   data.push({
     type: "scatter", mode: "lines", name: plotlyText(options.modelLabel ?? `${result.modelId} fit`),
-    x: plainArray(profile.x, axis.scale), y: plainArray(result.model),
+    x: plainArray(profile.x, axis.scale), y: plainArray(result.model, yAxis.scale),
     line: { color: style.color, width: 1.2, dash: style.dash, shape: "linear" },
     xaxis: "x", yaxis: "y",
   });
@@ -71,7 +72,7 @@ export function fitFigure(profile: Profile, result: FitResult, options: FitFigur
   const layout = {
     ...baseLayout(size, { kind: "fit", modelId: result.modelId, xUnit: axis.unit }),
     xaxis: axisStyle("", { domain: [0, 1], anchor: "y", matches: "x2", showticklabels: false, title: undefined }),
-    yaxis: axisStyle(intensityTitle(profile.yUnit), { domain: [0.3, 1], anchor: "x", rangemode: "tozero" }),
+    yaxis: axisStyle(yAxis.title, { domain: [0.3, 1], anchor: "x", rangemode: "tozero" }),
     xaxis2: axisStyle(axis.title, { domain: [0, 1], anchor: "y2" }),
     yaxis2: axisStyle("(<i>I</i>−<i>f</i>)/<i>σ</i>", { domain: [0, 0.22], anchor: "x2", range: [-limit, limit], nticks: 4 }),
     shapes: [{ type: "line", xref: "x2 domain", x0: 0, x1: 1, yref: "y2", y0: 0, y1: 0, line: { color: GUIDE, width: 0.75 } }],
