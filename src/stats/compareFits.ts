@@ -8,7 +8,7 @@ import type { Profile } from "../profile.js";
 import type { CompareOptions, ComparisonEntry, ComparisonJson, ComparisonResult, Criterion, LabelledEntry, ModelComparisonRow } from "./comparisonTypes.js";
 import { akaikeWeights, fitCriteria } from "./criteria.js";
 import { profileFingerprint } from "./fingerprint.js";
-import { isNestedByParameters, nestedTest, type NestedTestResult } from "./nested.js";
+import { isNestedByParameters, knownNesting, nestedTest, type NestedTestResult } from "./nested.js";
 import { residualDiagnostics } from "./residualDiagnostics.js";
 import { collectWarnings, writeVerdict } from "./verdict.js";
 
@@ -160,6 +160,7 @@ function nestedPairs(entries: LabelledEntry[], asserted: [string, string][]): Ne
     for (const b of entries) {
       if (a === b || !a.fit.converged || !b.fit.converged || done.has(`${a.label}\u0000${b.label}`)) continue;
       if (isNestedByParameters(a.fit, b.fit)) tests.push(nestedTest(a.fit, b.fit, "parameters", [a.label, b.label]));
+      else if (knownNesting(a.fit, b.fit)) tests.push(nestedTest(a.fit, b.fit, "model", [a.label, b.label], true));
     }
   }
   return tests;

@@ -22,8 +22,35 @@ export interface NestedTestResult {
   f: number;
   fPValue: number;
   fDof: [number, number];
-  /** How nesting was established: "parameters" (same model, free set ⊂) or "asserted" by the caller. */
-  nesting: "parameters" | "asserted";
+  /** How nesting was established: "parameters" (same model, free set ⊂), "model" (a known
+   * pair of model ids) or "asserted" by the caller. */
+  nesting: "parameters" | "model" | "asserted";
+  /** True when the null value sits on a parameter bound (e.g. bandwidth = 0) and the
+   * likelihood-ratio p-value was halved for the ½χ²₀ + ½χ²₁ null (Self & Liang 1987). */
+  boundaryCorrected: boolean;
+}
+
+/**
+ * Pairs of models where the simpler one is the larger one with parameters held at a bound:
+ * two-slit is two-slit-broadband at bandwidth = 0.
+ */
+const KNOWN_NESTED: Record<string, { larger: string; extra: string[] }[]> = {
+  "two-slit": [{ larger: "two-slit-broadband", extra: ["bandwidth"] }],
+};
+
+/**
+ * Whether `simpler` is nested in `larger` by a known pair of model ids (see KNOWN_NESTED) with
+ * the same free parameters apart from the pair's extra ones. Returns the extra (boundary)
+ * parameters, or undefined when the pair is not known.
+ */
+export function knownNesting(simpler: FitResult, larger: FitResult): string[] | undefined {
+  const pair = KNOWN_NESTED[simpler.modelId]?.find((p) => p.larger === larger.modelId);
+  if (!pair) return undefined;
+  const big = new Set(larger.freeNames);
+  const sameOtherwise = simpler.freeNames.every((n) => big.has(n))
+    && larger.freeNames.every((n) => simpler.freeNames.includes(n) || pair.extra.includes(n))
+    && pair.extra.every((n) => big.has(n));
+  return sameOtherwise ? pair.extra : undefined;
 }
 
 /**
@@ -45,14 +72,16 @@ function fitSum(fit: FitResult): number {
 
 /**
  * Likelihood-ratio test and F-test of `simpler` against `larger` (same data, same noise model;
- * nesting must be true — see isNestedByParameters).
- * @param labels names used in the result (default: the model ids)
+ * nesting must be true — see isNestedByParameters and knownNesting).
+ * @param labels   names used in the result (default: the model ids)
+ * @param boundary the simpler model holds the one extra parameter at a bound (halves the LR p-value)
  */
 export function nestedTest(
   simpler: FitResult,
   larger: FitResult,
-  nesting: "parameters" | "asserted" = "parameters",
+  nesting: "parameters" | "model" | "asserted" = "parameters",
   labels: [string, string] = [simpler.modelId, larger.modelId],
+  boundary = false,
 ): NestedTestResult {
   const extra = larger.statistics.nFree - simpler.statistics.nFree;
   if (extra <= 0) {
@@ -71,10 +100,11 @@ export function nestedTest(
     larger: labels[1],
     extraParameters: extra,
     likelihoodRatio: lr,
-    likelihoodRatioPValue: chiSquaredSurvival(lr, extra),
+    likelihoodRatioPValue: (boundary && extra === 1 ? 0.5 : 1) * chiSquaredSurvival(lr, extra),
     f,
     fPValue: Number.isFinite(f) ? fSurvival(f, extra, dof) : NaN,
     fDof: [extra, dof],
     nesting,
+    boundaryCorrected: boundary && extra === 1,
   };
 }

@@ -71,7 +71,7 @@ export function writeVerdict(rows: ModelComparisonRow[], tests: NestedTestResult
   for (const t of tests) {
     const significant = t.likelihoodRatioPValue < alpha;
     parts.push(`${t.larger} against ${t.simpler} (${t.extraParameters} extra parameter${t.extraParameters > 1 ? "s" : ""}): ` +
-      `likelihood ratio ${t.likelihoodRatio.toFixed(1)}, p = ${formatP(t.likelihoodRatioPValue)}; F = ${Number.isFinite(t.f) ? t.f.toFixed(2) : "n/a"}, ` +
+      `likelihood ratio ${t.likelihoodRatio.toFixed(1)}, p = ${formatP(t.likelihoodRatioPValue)}${t.boundaryCorrected ? " (halved: the simpler model sits on the extra parameter's bound)" : ""}; F = ${Number.isFinite(t.f) ? t.f.toFixed(2) : "n/a"}, ` +
       `p = ${formatP(t.fPValue)} — the extra parameter${t.extraParameters > 1 ? "s are" : " is"} ${significant ? "needed" : "not needed"} at the ${alpha} level.`);
   }
   const d = best.diagnostics;

@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { akaikeWeights, informationCriteria, nestedTest, isNestedByParameters, profileFingerprint } from "../../src/stats/index.js";
+import { akaikeWeights, compareFits, informationCriteria, isNestedByParameters, knownNesting, nestedTest, profileFingerprint } from "../../src/stats/index.js";
 import type { Profile } from "../../src/profile.js";
 import { expectClose } from "./python.js";
 import { fakeFit } from "./fakeFit.js";
@@ -55,6 +55,27 @@ describe("nested tests", () => {
     const other = { ...larger, modelId: "two-slit-fresnel" };
     expect(isNestedByParameters(simple, other)).toBe(false);
     expect(() => nestedTest(larger, simple)).toThrow(/more free parameters/);
+  });
+});
+
+describe("known nesting by model id", () => {
+  const values = { amplitude: 1, center: 0, separation: 5e-4, wavelength: 6e-7, distance: 1 };
+  const mono = fakeFit({ modelId: "two-slit", free: ["amplitude", "center", "separation"], values, logLikelihood: -200, chi2: 100, n: 100 });
+  const broad = fakeFit({ modelId: "two-slit-broadband", free: ["amplitude", "center", "separation", "bandwidth"], values: { ...values, bandwidth: 1e-9 },
+    logLikelihood: -197, chi2: 94, n: 100 });
+  it("knownNesting(two-slit, two-slit-broadband) finds the bandwidth = 0 boundary", () => {
+    expect(knownNesting(mono, broad)).toEqual(["bandwidth"]);
+    expect(knownNesting(broad, mono)).toBeUndefined();
+  });
+  it("compareFits([two-slit, two-slit-broadband]) halves the likelihood-ratio p-value on the boundary", () => {
+    // LR = 2(−197 + 200) = 6 on one boundary parameter: p = ½ P(χ²₁ > 6) = ½ erfc(√3)
+    // (Self & Liang 1987 mixture) = 0.0071529392177148 (mpmath, 20 digits).
+    const result = compareFits([mono, broad]);
+    expect(result.tests).toHaveLength(1);
+    expect(result.tests[0].nesting).toBe("model");
+    expect(result.tests[0].boundaryCorrected).toBe(true);
+    expectClose(result.tests[0].likelihoodRatioPValue, 0.0071529392177148, 1e-12, "boundary p");
+    expect(result.verdict).toMatch(/halved: the simpler model sits on the extra parameter's bound/);
   });
 });
 
