@@ -87,10 +87,11 @@ export function buildProblem(prep: PreparedFit): LeastSquaresProblem {
   if (model.jacobian) {
     const fullJac = new Float64Array(n * P), expansion = new Float64Array(P * q), scratch = new Float64Array(n);
     const modelJacobian = model.jacobian.bind(model);
-    problem.jacobian = (theta, jac) => {
+    problem.jacobianWritesResiduals = true;
+    problem.jacobian = (theta, jac, out) => {
       expandParameters(plan, theta, full);
       modelJacobian(x, full, fullJac, f);
-      noiseResiduals(noise, y, f, scratch, drdf);
+      noiseResiduals(noise, y, f, out ?? scratch, drdf);
       if (plan.ties.length === 0) {
         for (let i = 0; i < n; i++) {
           const d = drdf[i], row = i * P;

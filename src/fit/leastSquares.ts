@@ -27,8 +27,11 @@ export interface LeastSquaresProblem {
   readonly p: number;
   /** Writes r(θ) (length n) into `out`. Non-finite values make the solver reject the point. */
   residuals(params: Float64Array, out: Float64Array): void;
-  /** Optional analytic Jacobian, row-major n × p: jac[i·p + j] = ∂r_i/∂θ_j; may also write r into `out`. */
+  /** Optional analytic Jacobian, row-major n × p: jac[i·p + j] = ∂r_i/∂θ_j. */
   jacobian?(params: Float64Array, jac: Float64Array, out?: Float64Array): void;
+  /** True when `jacobian(params, jac, out)` also writes r(θ) into `out` (then a trial point after a
+   * good step is evaluated with its Jacobian in one call, saving a model evaluation per iteration). */
+  jacobianWritesResiduals?: boolean;
 }
 
 /** Progress report, once per iteration. */
@@ -115,7 +118,8 @@ function levenbergMarquardt(problem: LeastSquaresProblem, start: Float64Array, o
   // Workspace: everything the loop touches.
   const x = new Float64Array(p), xTrial = new Float64Array(p), step = new Float64Array(p);
   const r = new Float64Array(n), rTrial = new Float64Array(n), rWork = new Float64Array(n), rWork2 = new Float64Array(n);
-  const jac = new Float64Array(n * p), qr = new Float64Array(n * p), qtr = new Float64Array(n);
+  let jac = new Float64Array(n * p), jacTrial = new Float64Array(problem.jacobianWritesResiduals ? n * p : 0);
+  const qr = new Float64Array(n * p), qtr = new Float64Array(n);
   const rdiag = new Float64Array(p), tau = new Float64Array(p);
   const small = new Float64Array(2 * p * p), smallRhs = new Float64Array(2 * p), smallDiag = new Float64Array(p), smallTau = new Float64Array(p);
   const grad = new Float64Array(p), colNorm = new Float64Array(p), diag = new Float64Array(p), accel = new Float64Array(p), rStep = new Float64Array(p);
@@ -161,6 +165,10 @@ function levenbergMarquardt(problem: LeastSquaresProblem, start: Float64Array, o
         }
       }
     }
+    processJacobian();
+  };
+  // Gradient, column norms, scaling and the QR factorisation of the Jacobian now in `jac`.
+  const processJacobian = (): void => {
     grad.fill(0); colNorm.fill(0);
     for (let i = 0; i < n; i++) {
       const row = i * p, ri = r[i];
@@ -212,6 +220,8 @@ function levenbergMarquardt(problem: LeastSquaresProblem, start: Float64Array, o
   let lambda = options.initialDamping ?? 1e-3;
   let nu = 2;
   let jacobianCurrent = true;
+  // Speculative Jacobian: after a good step the next trial is usually accepted too.
+  let speculate = false;
 
   for (;;) {
     if (options.signal?.aborted) return finish("cancelled", cost);
@@ -276,7 +286,16 @@ function levenbergMarquardt(problem: LeastSquaresProblem, start: Float64Array, o
     scaledStep = Math.sqrt(scaledStep); scaledX = Math.sqrt(scaledX);
     iterations++;
 
-    const costTrial = evaluate(xTrial, rTrial);
+    const speculative = speculate && problem.jacobianWritesResiduals === true && problem.jacobian !== undefined;
+    let costTrial: number;
+    if (speculative) {
+      evaluations++; jacobianEvaluations++;
+      problem.jacobian!(xTrial, jacTrial, rTrial);
+      costTrial = 0;
+      for (let i = 0; i < n; i++) costTrial += rTrial[i] * rTrial[i];
+    } else {
+      costTrial = evaluate(xTrial, rTrial);
+    }
     // Predicted reduction of the linear model: ‖r‖² − ‖r + J s‖² = −Σ_k [2 (Qᵀr)_k (Rs)_k + (Rs)_k²].
     let predicted = 0;
     for (let a = 0; a < p; a++) {
@@ -294,13 +313,20 @@ function levenbergMarquardt(problem: LeastSquaresProblem, start: Float64Array, o
       const previous = cost;
       x.set(xTrial); r.set(rTrial); cost = costTrial;
       jacobianCurrent = false;
+      if (speculative) {
+        const swap = jac; jac = jacTrial; jacTrial = swap;
+        processJacobian();
+        jacobianCurrent = true;
+      }
+      speculate = rho > 0.25;
       lambda *= Math.max(1 / 3, 1 - (2 * rho - 1) ** 3); nu = 2;
       const flat = Math.abs(actual) <= ftol * previous && predicted <= ftol * previous;
       if (flat || smallStep) {
-        computeJacobian();
+        if (!jacobianCurrent) computeJacobian();
         return finish(flat ? "converged-objective" : "converged-step", cost);
       }
     } else {
+      speculate = false;
       if (smallStep) return finish(Number.isFinite(costTrial) ? "converged-step" : "non-finite", cost);
       lambda = Math.max(lambda * nu, 1e-12); nu *= 2;
       if (!(lambda < 1e300)) return finish(Number.isFinite(costTrial) ? "converged-step" : "non-finite", cost);
