@@ -66,7 +66,7 @@ export function formatQuantity(
   const known = Number.isFinite(uncertainty) && uncertainty > 0;
   const prefix = pickPrefix(baseUnit, value, known ? uncertainty : 0, options.prefix ?? "auto");
   const scale = 10 ** -prefix.exponent;
-  const displayUnit = baseUnit === "" ? "" : `${prefix.symbol}${baseUnit}`;
+  const displayUnit = baseUnit === "" ? "" : `${prefix.symbol}${readableUnit(baseUnit)}`;
   const finalNote = note ?? (known || uncertainty === 0 ? null : "uncertainty not estimated");
 
   let valueText: string;
@@ -118,6 +118,13 @@ function pickPrefix(unit: string, value: number, uncertainty: number, wanted: st
   const prefix = prefixBySymbol(wanted);
   if (!prefix) throw new InvalidArgumentError("prefix", wanted, '"auto", "none" or an SI prefix from p to G');
   return prefix;
+}
+
+const SUPERSCRIPT: Record<string, string> = { "-": "⁻", "1": "¹", "2": "²", "3": "³", "4": "⁴" };
+
+/** "m^-1" → "m⁻¹", "m^2" → "m²": exponents as superscripts, the way units are printed. */
+export function readableUnit(unit: string): string {
+  return unit.replace(/\^(-?[1-4])\b/g, (_m, exp: string) => [...exp].map((c) => SUPERSCRIPT[c]).join(""));
 }
 
 function trimZeros(text: string): string {

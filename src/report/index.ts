@@ -8,6 +8,7 @@ export * from "./table.js";
 export * from "./tableText.js";
 export * from "./fitTable.js";
 export * from "./comparisonTable.js";
+export * from "./quantityTable.js";
 export * from "./tableReport.js";
 export * from "./figures/index.js";
 export * from "./version.js";

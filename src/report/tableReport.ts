@@ -5,6 +5,7 @@
 import type { FitResult } from "../fit/types.js";
 import { comparisonTable, type ComparisonTableOptions, type LabelledFit } from "./comparisonTable.js";
 import { fitTable, type FitTableOptions } from "./fitTable.js";
+import { quantityTable, type QuantityRow, type QuantityTableOptions } from "./quantityTable.js";
 import { tableToHtml, tableToLatex, tableToLatexDocument, tableToMarkdown, type ReportTable } from "./table.js";
 import { tableToText } from "./tableText.js";
 
@@ -51,4 +52,9 @@ export function fitReport(result: FitResult, options: FitTableOptions = {}): Tab
 /** The comparison report of several fits of the same data (see comparisonTable). */
 export function comparisonReport(fits: readonly LabelledFit[], options: ComparisonTableOptions = {}): TableReport {
   return new TableReport(comparisonTable(fits, options));
+}
+
+/** The report of derived quantities, e.g. derivedQuantities(fit).quantities from stats. */
+export function quantityReport(quantities: readonly QuantityRow[], options: QuantityTableOptions = {}): TableReport {
+  return new TableReport(quantityTable(quantities, options));
 }

@@ -4,7 +4,7 @@ import { tmpdir } from "node:os";
 import { join } from "node:path";
 import { describe, expect, it } from "vitest";
 import { escapeHtml, escapeLatex, escapeMarkdown } from "../../src/report/escape.js";
-import { comparisonReport, fitReport } from "../../src/report/tableReport.js";
+import { comparisonReport, fitReport, quantityReport } from "../../src/report/tableReport.js";
 import { rankFits } from "../../src/report/comparisonTable.js";
 import { HOSTILE, makeFitResult } from "./fixtures.js";
 
@@ -128,5 +128,25 @@ describe("comparisonReport(fits, options)", () => {
     expect(r.toHtml()).not.toContain("<script");
     expect(r.toMarkdown().split("\n").filter((l) => l.startsWith("|")).length).toBe(4);
     if (existsSync(PDFLATEX)) expect(compileLatex(r.toLatexDocument()).log).toMatch(/Output written/);
+  });
+});
+
+describe("quantityReport(quantities, options)", () => {
+  const quantities = [
+    { name: "fringeSpacing", value: 1.26543e-3, uncertainty: 2.345e-7, unit: "m", note: "λL/d" },
+    { name: "fringeFrequency", value: 790.24, uncertainty: 0.146, unit: "m^-1" },
+    { name: "degreeOfCoherence", value: 0.8731, uncertainty: Infinity, unit: "1", note: HOSTILE[0] },
+  ];
+  const r = quantityReport(quantities);
+  it("formats each quantity with GUM rounding and readable units (m⁻¹)", () => {
+    const text = r.toString();
+    expect(text).toContain("(1.26543 ± 0.00023) mm"); // 1.26543e-3 ± 2.345e-7 m, hand-checked
+    expect(text).toContain("(790.24 ± 0.15) m⁻¹");
+    expect(text).toContain("0.8731 (uncertainty not estimated)");
+    expect(r.toHtml()).not.toContain("<script");
+  });
+  it.skipIf(!existsSync(PDFLATEX))("compiles with pdflatex, units with superscripts", () => {
+    expect(r.toLatex()).toContain("m\\textsuperscript{-}\\textonesuperior{}");
+    expect(compileLatex(r.toLatexDocument()).log).toMatch(/Output written/);
   });
 });
