@@ -18,6 +18,7 @@ import type { Model } from "./model.js";
 import type { PointPattern } from "./pattern.js";
 import { detectorModel } from "./detector.js";
 import { directionSine, type SineResult } from "./geometry.js";
+import { sinc, sincWithSlope, type SincResult } from "./sinc.js";
 import { specs } from "./specs.js";
 import type { FarFieldOptions } from "./twoSlit.js";
 
@@ -31,6 +32,7 @@ const FWHM_TO_SIGMA = 1 / (2 * Math.sqrt(2 * Math.LN2));
 export function twoSlitBroadbandPattern(options: { smallAngle?: boolean } = {}): PointPattern {
   const smallAngle = options.smallAngle ?? false;
   const geo: SineResult = { s: 0, dsdu: 0, dsdL: 0 };
+  const envelopeSinc: SincResult = { value: 0, slope: 0 };
   let amplitude = 0, center = 0, separation = 0, width = 0, visibility = 0, phase = 0;
   let wavelength = 0, bandwidth = 0, distance = 0, k = 0, sigmaK = 0, dSigmaDBandwidth = 0;
   const evaluate = (x: number, g: Float64Array | null): number => {
@@ -39,14 +41,12 @@ export function twoSlitBroadbandPattern(options: { smallAngle?: boolean } = {}):
     const beta = 0.5 * k * width * s;
     let sincValue: number;
     let sincSlope = 0;
-    if (Math.abs(beta) < 1e-3) {
-      const b2 = beta * beta;
-      sincValue = 1 - (b2 / 6) * (1 - b2 / 20);
-      sincSlope = -(beta / 3) * (1 - b2 / 10);
+    if (g) {
+      sincWithSlope(beta, envelopeSinc);
+      sincValue = envelopeSinc.value;
+      sincSlope = envelopeSinc.slope;
     } else {
-      const sb = Math.sin(beta);
-      sincValue = sb / beta;
-      if (g) sincSlope = (beta * Math.cos(beta) - sb) / (beta * beta);
+      sincValue = sinc(beta);
     }
     const envelope = sincValue * sincValue;
     const pathLength = separation * s; // D (m)
@@ -118,6 +118,7 @@ export function twoSlitSpectrumPattern(spectrum: SpectrumTable, options: { small
   const { ks, ws } = normaliseSpectrum(spectrum);
   const smallAngle = options.smallAngle ?? false;
   const geo: SineResult = { s: 0, dsdu: 0, dsdL: 0 };
+  const envelopeSinc: SincResult = { value: 0, slope: 0 };
   let amplitude = 0, center = 0, separation = 0, width = 0, visibility = 0, phase = 0, distance = 0;
   const evaluate = (x: number, g: Float64Array | null): number => {
     directionSine(x - center, distance, smallAngle, geo);
@@ -129,14 +130,12 @@ export function twoSlitSpectrumPattern(spectrum: SpectrumTable, options: { small
       const beta = 0.5 * k * width * s;
       let sincValue: number;
       let sincSlope = 0;
-      if (Math.abs(beta) < 1e-3) {
-        const b2 = beta * beta;
-        sincValue = 1 - (b2 / 6) * (1 - b2 / 20);
-        sincSlope = -(beta / 3) * (1 - b2 / 10);
+      if (g) {
+        sincWithSlope(beta, envelopeSinc);
+        sincValue = envelopeSinc.value;
+        sincSlope = envelopeSinc.slope;
       } else {
-        const sb = Math.sin(beta);
-        sincValue = sb / beta;
-        if (g) sincSlope = (beta * Math.cos(beta) - sb) / (beta * beta);
+        sincValue = sinc(beta);
       }
       const envelope = sincValue * sincValue;
       const gamma = k * separation * s + phase;

@@ -11,6 +11,7 @@ import type { Model } from "./model.js";
 import type { PointPattern } from "./pattern.js";
 import { detectorModel } from "./detector.js";
 import { directionSine, type SineResult } from "./geometry.js";
+import { sinc, sincWithSlope, type SincResult } from "./sinc.js";
 import { specs } from "./specs.js";
 import type { FarFieldOptions } from "./twoSlit.js";
 
@@ -64,7 +65,7 @@ export function nSlitPattern(options: { smallAngle?: boolean } = {}): PointPatte
     value(x) {
       directionSine(x - center, distance, smallAngle, geo);
       const beta = 0.5 * k * width * geo.s;
-      const [sincValue] = sincPair(beta);
+      const sincValue = sinc(beta);
       const envelope = sincValue * sincValue;
       gratingFactor(slits, 0.5 * k * separation * geo.s, grating);
       return amplitude * envelope * grating.g * grating.g;
@@ -74,7 +75,9 @@ export function nSlitPattern(options: { smallAngle?: boolean } = {}): PointPatte
       const s = geo.s;
       const beta = 0.5 * k * width * s;
       const phi = 0.5 * k * separation * s;
-      const [sincValue, sincSlope] = sincPair(beta);
+      sincWithSlope(beta, envelopeSinc);
+      const sincValue = envelopeSinc.value;
+      const sincSlope = envelopeSinc.slope;
       gratingFactor(slits, phi, grating);
       const envelope = sincValue * sincValue;
       const interference = grating.g * grating.g;
@@ -113,14 +116,16 @@ export function singleSlitPattern(options: { smallAngle?: boolean } = {}): Point
     },
     value(x) {
       directionSine(x - center, distance, smallAngle, geo);
-      const [sincValue] = sincPair(0.5 * k * width * geo.s);
+      const sincValue = sinc(0.5 * k * width * geo.s);
       return amplitude * sincValue * sincValue;
     },
     valueGrad(x, g) {
       directionSine(x - center, distance, smallAngle, geo);
       const s = geo.s;
       const beta = 0.5 * k * width * s;
-      const [sincValue, sincSlope] = sincPair(beta);
+      sincWithSlope(beta, envelopeSinc);
+      const sincValue = envelopeSinc.value;
+      const sincSlope = envelopeSinc.slope;
       const dBeta = amplitude * 2 * sincValue * sincSlope;
       const dS = dBeta * 0.5 * k * width;
       const dU = dS * geo.dsdu;
@@ -135,20 +140,7 @@ export function singleSlitPattern(options: { smallAngle?: boolean } = {}): Point
   };
 }
 
-const pair: [number, number] = [0, 0];
-/** [sinc β, d sinc/dβ] in a shared scratch tuple (no allocation). */
-function sincPair(beta: number): [number, number] {
-  if (Math.abs(beta) < 1e-3) {
-    const b2 = beta * beta;
-    pair[0] = 1 - (b2 / 6) * (1 - b2 / 20);
-    pair[1] = -(beta / 3) * (1 - b2 / 10);
-  } else {
-    const sb = Math.sin(beta);
-    pair[0] = sb / beta;
-    pair[1] = (beta * Math.cos(beta) - sb) / (beta * beta);
-  }
-  return pair;
-}
+const envelopeSinc: SincResult = { value: 0, slope: 0 };
 
 /**
  * Model "n-slit": N-slit pattern plus detector effects (see detectorModel). Parameters:

@@ -1,9 +1,17 @@
 /**
  * sinc(β) = sin β / β and its derivative, stable at β → 0 (Taylor series below |β| < 1e-3,
- * truncation error < 1e-19).
+ * truncation error < 1e-19). Shared by every far-field envelope.
  */
 
-/** sin β / β (dimensionless), with sinc(0) = 1. */
+/** Scratch result of `sincWithSlope`. */
+export interface SincResult {
+  /** sin β / β */
+  value: number;
+  /** d/dβ (sin β / β) = (β cos β − sin β) / β² */
+  slope: number;
+}
+
+/** sin β / β (dimensionless, β in rad), with sinc(0) = 1. */
 export function sinc(beta: number): number {
   if (Math.abs(beta) < 1e-3) {
     const b2 = beta * beta;
@@ -12,11 +20,15 @@ export function sinc(beta: number): number {
   return Math.sin(beta) / beta;
 }
 
-/** d/dβ (sin β / β) = (β cos β − sin β) / β². */
-export function sincDerivative(beta: number): number {
+/** Writes sinc(β) and its derivative into `out` (one sin and one cos evaluation). */
+export function sincWithSlope(beta: number, out: SincResult): void {
   if (Math.abs(beta) < 1e-3) {
     const b2 = beta * beta;
-    return -(beta / 3) * (1 - b2 / 10);
+    out.value = 1 - (b2 / 6) * (1 - b2 / 20);
+    out.slope = -(beta / 3) * (1 - b2 / 10);
+    return;
   }
-  return (beta * Math.cos(beta) - Math.sin(beta)) / (beta * beta);
+  const sb = Math.sin(beta);
+  out.value = sb / beta;
+  out.slope = (beta * Math.cos(beta) - sb) / (beta * beta);
 }

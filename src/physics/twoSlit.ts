@@ -13,6 +13,7 @@ import type { Model } from "./model.js";
 import type { PointPattern } from "./pattern.js";
 import { detectorModel, type DetectorOptions } from "./detector.js";
 import { directionSine, type SineResult } from "./geometry.js";
+import { sinc, sincWithSlope, type SincResult } from "./sinc.js";
 import { specs } from "./specs.js";
 
 /** Options of the far-field models. */
@@ -29,6 +30,7 @@ export interface FarFieldOptions extends DetectorOptions {
 export function twoSlitPattern(options: { smallAngle?: boolean } = {}): PointPattern {
   const smallAngle = options.smallAngle ?? false;
   const geo: SineResult = { s: 0, dsdu: 0, dsdL: 0 };
+  const envelopeSinc: SincResult = { value: 0, slope: 0 };
   let amplitude = 0, center = 0, separation = 0, width = 0, visibility = 0, phase = 0;
   let wavelength = 0, distance = 0, k = 0;
   return {
@@ -42,25 +44,16 @@ export function twoSlitPattern(options: { smallAngle?: boolean } = {}): PointPat
     },
     value(x) {
       directionSine(x - center, distance, smallAngle, geo);
-      const beta = 0.5 * k * width * geo.s;
-      const envelope = sincSquared(beta);
+      const envelopeValue = sinc(0.5 * k * width * geo.s);
+      const envelope = envelopeValue * envelopeValue;
       return amplitude * envelope * (1 + visibility * Math.cos(k * separation * geo.s + phase));
     },
     valueGrad(x, g) {
       directionSine(x - center, distance, smallAngle, geo);
       const s = geo.s;
       const beta = 0.5 * k * width * s;
-      let sincValue: number;
-      let sincSlope: number;
-      if (Math.abs(beta) < 1e-3) {
-        const b2 = beta * beta;
-        sincValue = 1 - (b2 / 6) * (1 - b2 / 20);
-        sincSlope = -(beta / 3) * (1 - b2 / 10);
-      } else {
-        const sb = Math.sin(beta);
-        sincValue = sb / beta;
-        sincSlope = (beta * Math.cos(beta) - sb) / (beta * beta);
-      }
+      sincWithSlope(beta, envelopeSinc);
+      const sincValue = envelopeSinc.value;
       const envelope = sincValue * sincValue;
       const path = k * separation * s; // optical phase difference without φ
       const gamma = path + phase;
@@ -68,7 +61,7 @@ export function twoSlitPattern(options: { smallAngle?: boolean } = {}): PointPat
       const sinG = Math.sin(gamma);
       const fringe = 1 + visibility * cosG;
       const value = amplitude * envelope * fringe;
-      const dBeta = amplitude * 2 * sincValue * sincSlope * fringe; // ∂I/∂β
+      const dBeta = amplitude * 2 * sincValue * envelopeSinc.slope * fringe; // ∂I/∂β
       const dGamma = -amplitude * envelope * visibility * sinG; // ∂I/∂γ
       const dS = dBeta * 0.5 * k * width + dGamma * k * separation; // ∂I/∂s
       const dU = dS * geo.dsdu;
@@ -94,14 +87,4 @@ export function twoSlitPattern(options: { smallAngle?: boolean } = {}): PointPat
  */
 export function twoSlitModel(options: FarFieldOptions = {}): Model {
   return detectorModel(twoSlitPattern(options), options);
-}
-
-function sincSquared(beta: number): number {
-  if (Math.abs(beta) < 1e-3) {
-    const b2 = beta * beta;
-    const value = 1 - (b2 / 6) * (1 - b2 / 20);
-    return value * value;
-  }
-  const value = Math.sin(beta) / beta;
-  return value * value;
 }
