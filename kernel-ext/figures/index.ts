@@ -3,3 +3,4 @@ export * from "./exportFigure.js";
 export * from "./atomicWrite.js";
 export { setPngDpi } from "./pngDensity.js";
 export * from "./figureBundle.js";
+export * from "./exportReport.js";

@@ -120,3 +120,23 @@ function toRgba(image: ReturnType<typeof decode>): Uint8Array {
   }
   return out;
 }
+
+describe.skipIf(!haveChromium)("exportFitReport(profile, result, base, options)", () => {
+  it("writes figure, LaTeX, Markdown, HTML and a results file that parses back to the same result", async () => {
+    const { parseResults } = await import("../../src/report/results/resultsDocument.js");
+    const { exportFitReport } = await import("../../kernel-ext/figures/exportReport.js");
+    const { fitExample } = await import("./figureExamples.js");
+    const dir = mkdtempSync(path.join(tmpdir(), "fringekit-report-"));
+    try {
+      const { profile, result } = fitExample();
+      const out = await exportFitReport(profile, result, path.join(dir, "fig2"), { formats: ["svg"], fitOptions: { noise: "gaussian" } });
+      expect(readdirSync(dir).sort()).toEqual(["fig2-table.tex", "fig2.html", "fig2.json", "fig2.md", "fig2.svg", "fig2.tex"]);
+      expect(out.figures).toEqual([path.join(dir, "fig2.svg")]);
+      expect(parseResults(readFileSync(out.results, "utf8")).fits[0].result).toEqual(result);
+      expect(readFileSync(out.latexDocument, "utf8")).toMatch(/^\\documentclass\{article\}/);
+      await expect(exportFitReport(profile, result, path.join(dir, "x.pdf"))).rejects.toThrow(/without extension/);
+    } finally {
+      rmSync(dir, { recursive: true, force: true });
+    }
+  });
+});

@@ -1,0 +1,103 @@
+/**
+ * One call from a fit (or comparison, or coherence scan) to everything a paper needs:
+ * the figure (PDF, SVG and/or PNG), the table (LaTeX document, LaTeX tabular, Markdown, HTML)
+ * and the results file that re-runs it. Every file is written atomically.
+ *
+ * Example: await exportFitReport(profile, result, "out/fig2", { fitOptions, formats: ["pdf", "png"] })
+ *   → out/fig2.pdf, out/fig2.png, out/fig2.tex, out/fig2-table.tex, out/fig2.md, out/fig2.html, out/fig2.json
+ */
+import { InvalidArgumentError } from "../../src/errors.js";
+import type { FitResult } from "../../src/fit/types.js";
+import type { Model } from "../../src/physics/model.js";
+import type { Profile } from "../../src/profile.js";
+import type { LabelledFit } from "../../src/report/comparisonTable.js";
+import { coherenceScanFigure } from "../../src/report/figures/coherenceScanFigure.js";
+import { comparisonFigure } from "../../src/report/figures/comparisonFigure.js";
+import type { FigureSpec } from "../../src/report/figures/figureSpec.js";
+import { fitFigure, type FitFigureOptions } from "../../src/report/figures/fitFigure.js";
+import { comparisonDocument, fitDocument, scanDocument, stringifyResults, type DocumentOptions, type FitToRecord, type ResultsDocument } from "../../src/report/results/resultsDocument.js";
+import { comparisonReport, fitReport, type TableReport } from "../../src/report/tableReport.js";
+import { writeFileAtomic } from "./atomicWrite.js";
+import { exportFigure, FigureRenderer, type FigureFormat } from "./exportFigure.js";
+
+export interface ExportReportOptions extends DocumentOptions {
+  /** Figure formats to write (default ["pdf", "png"]). */
+  formats?: FigureFormat[];
+  /** PNG resolution (default 300 dpi). */
+  dpi?: number;
+  /** Figure size and labels. */
+  figure?: FitFigureOptions;
+  /** Options the fit(s) were made with, recorded in the results file. */
+  fitOptions?: Record<string, unknown>;
+  /** Model construction options, recorded in the results file. */
+  modelOptions?: Record<string, unknown>;
+  /** Table caption (user text, escaped). */
+  caption?: string;
+}
+
+/** Paths of the files written. */
+export interface ExportedReport {
+  figures: string[];
+  latexDocument: string;
+  latexTable: string;
+  markdown: string;
+  html: string;
+  results: string;
+}
+
+/** Figure, tables and results file of one fit, named `base`.{pdf,png,svg,tex,md,html,json}. */
+export async function exportFitReport(profile: Profile, result: FitResult, base: string, options: ExportReportOptions = {}): Promise<ExportedReport> {
+  const fit: FitToRecord = { result, fitOptions: options.fitOptions, modelOptions: options.modelOptions };
+  return writeAll(base, fitFigure(profile, result, options.figure), fitReport(result, { caption: options.caption, source: profile.provenance?.source }), fitDocument(profile, fit, options), options);
+}
+
+/** Figure, table and results file of a comparison of fits of one profile. */
+export async function exportComparisonReport(profile: Profile, fits: readonly LabelledFit[], base: string, options: ExportReportOptions = {}): Promise<ExportedReport> {
+  const records = fits.map((f) => ({ label: f.label, result: f.result, fitOptions: options.fitOptions, modelOptions: options.modelOptions }));
+  return writeAll(
+    base,
+    comparisonFigure(profile, fits, options.figure),
+    comparisonReport(fits, { caption: options.caption, verdict: options.verdict }),
+    comparisonDocument(profile, records, options),
+    options,
+  );
+}
+
+/** Figure, table and results file of a coherence-scan fit (scan: x = separation in m, y = visibility). */
+export async function exportScanReport(scan: Profile, result: FitResult, model: Model, base: string, options: ExportReportOptions = {}): Promise<ExportedReport> {
+  const fit: FitToRecord = { result, fitOptions: options.fitOptions, modelOptions: options.modelOptions };
+  return writeAll(base, coherenceScanFigure(scan, result, model, options.figure), fitReport(result, { caption: options.caption, source: scan.provenance?.source }), scanDocument(scan, fit, options), options);
+}
+
+async function writeAll(base: string, figure: FigureSpec, table: TableReport, doc: ResultsDocument, options: ExportReportOptions): Promise<ExportedReport> {
+  if (typeof base !== "string" || base === "" || /\.(pdf|png|svg|json|tex|md|html)$/i.test(base)) {
+    throw new InvalidArgumentError("base", base, "an output path without extension, e.g. out/figure2 (the extensions are added)");
+  }
+  const formats = options.formats ?? ["pdf", "png"];
+  // Write the cheap, pure outputs first: a browser failure then still leaves the tables and results.
+  const out: ExportedReport = {
+    figures: [],
+    latexDocument: `${base}.tex`,
+    latexTable: `${base}-table.tex`,
+    markdown: `${base}.md`,
+    html: `${base}.html`,
+    results: `${base}.json`,
+  };
+  await writeFileAtomic(out.results, stringifyResults(doc));
+  await writeFileAtomic(out.latexDocument, table.toLatexDocument());
+  await writeFileAtomic(out.latexTable, `${table.toLatex()}\n`);
+  await writeFileAtomic(out.markdown, `${table.toMarkdown()}\n`);
+  await writeFileAtomic(out.html, `<!doctype html>\n<meta charset="utf-8">\n${table.toHtml()}\n`);
+  if (formats.length) {
+    const renderer = await FigureRenderer.start();
+    try {
+      for (const format of formats) {
+        const written = await exportFigure(figure, `${base}.${format}`, { format, dpi: options.dpi }, renderer);
+        out.figures.push(written.path);
+      }
+    } finally {
+      await renderer.close();
+    }
+  }
+  return out;
+}
