@@ -1,0 +1,57 @@
+/**
+ * Builds the browser bundles into widgets/dist/ with esbuild:
+ *   fringekit-widgets.js  the widget module as an ES module (for pages and loaders that import it)
+ *   fringekit-embed.js    the offline renderer: widget manager + widgets + plotly in one classic
+ *                         script that never sees an AMD `define` (safe on require.js pages)
+ * plus any extra entries (test pages). Run: `npx tsx widgets/build.ts`.
+ */
+import { build, type BuildOptions } from "esbuild";
+import { fileURLToPath } from "node:url";
+import path from "node:path";
+
+/** Folder of this file (widgets/). */
+export const widgetsDir = path.dirname(fileURLToPath(import.meta.url));
+/** Where bundles go. */
+export const distDir = path.join(widgetsDir, "dist");
+
+const common: BuildOptions = {
+  bundle: true,
+  minify: true,
+  sourcemap: false,
+  target: "es2022",
+  logLevel: "error",
+  legalComments: "none",
+  loader: { ".css": "text", ".woff": "dataurl", ".woff2": "dataurl", ".ttf": "dataurl", ".eot": "dataurl", ".svg": "dataurl" },
+  define: { "process.env.NODE_ENV": '"production"' },
+};
+
+/** One extra bundle: entry file (absolute) and output file name in widgets/dist/. */
+export interface ExtraEntry {
+  entry: string;
+  out: string;
+}
+
+/**
+ * Build the module bundle, the offline renderer and `extra` classic-script bundles.
+ * @returns absolute paths of the written files
+ */
+export async function buildWidgetBundles(extra: ExtraEntry[] = []): Promise<string[]> {
+  const written: string[] = [];
+  const moduleOut = path.join(distDir, "fringekit-widgets.js");
+  await build({ ...common, entryPoints: [path.join(widgetsDir, "src/entry/module.ts")], format: "esm", outfile: moduleOut });
+  written.push(moduleOut);
+  const classic = [{ entry: path.join(widgetsDir, "src/entry/embed.ts"), out: "fringekit-embed.js" }, ...extra];
+  for (const item of classic) {
+    const outfile = path.join(distDir, item.out);
+    // IIFE output with `define` renamed away: a require.js page would otherwise route UMD
+    // dependencies inside the bundle down the AMD path and they would never load.
+    await build({ ...common, entryPoints: [item.entry], format: "iife", outfile, define: { ...common.define, define: "undefined" } });
+    written.push(outfile);
+  }
+  return written;
+}
+
+if (process.argv[1] && path.resolve(process.argv[1]) === fileURLToPath(import.meta.url)) {
+  const files = await buildWidgetBundles();
+  for (const file of files) process.stdout.write(`${path.relative(process.cwd(), file)}\n`);
+}

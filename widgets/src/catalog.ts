@@ -1,0 +1,27 @@
+/**
+ * The models the browser can evaluate, keyed by id. The bundle entry registers fringekit's
+ * physics models (the same code the kernel runs), so sliders recompute curves without the kernel.
+ */
+import type { Model } from "../../src/physics/model.js";
+
+const models = new Map<string, Model>();
+
+/** Make `model` available to explorer views under `model.id`. */
+export function registerModel(model: Model): void {
+  models.set(model.id, model);
+}
+
+/** The model with this id, or a clear error naming the ids that exist. */
+export function modelById(id: string): Model {
+  const model = models.get(id);
+  if (model === undefined) {
+    throw new Error(`unknown model ${JSON.stringify(id)} in the browser (known: ${[...models.keys()].join(", ") || "none"}); ` +
+      "rebuild the widget bundle after adding a model");
+  }
+  return model;
+}
+
+/** Ids of every registered model, in registration order. */
+export function modelIds(): string[] {
+  return [...models.keys()];
+}

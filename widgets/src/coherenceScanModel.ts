@@ -1,0 +1,47 @@
+/** State of the coherence-scan widget. */
+import { DOMWidgetModel } from "@jupyter-widgets/base";
+import { arraySerializers } from "./arrayWire.js";
+import { FringekitModel, moduleDefaults } from "./fringekitModel.js";
+
+/** A fitted quantity of the source model, shown beside the plot (SI). */
+export interface ScanQuantity {
+  name: string;
+  unit: string;
+  value: number;
+  stderr: number | null;
+}
+
+/**
+ * Visibility against slit separation: measured points (`separation` in m, `visibility`,
+ * optional `visibility_err`), the fitted source model on a fine grid (`curve_separation`,
+ * `curve_visibility`) with its confidence band (`band_lower`, `band_upper`).
+ */
+export class CoherenceScanModel extends FringekitModel {
+  override defaults() {
+    return {
+      ...super.defaults(),
+      ...moduleDefaults("CoherenceScanModel", "CoherenceScanView"),
+      title: "Coherence scan",
+      separation: null,
+      visibility: null,
+      visibility_err: null,
+      curve_separation: null,
+      curve_visibility: null,
+      band_lower: null,
+      band_upper: null,
+      source_label: "",
+      quantities: [],
+    };
+  }
+
+  static override serializers = {
+    ...DOMWidgetModel.serializers,
+    separation: arraySerializers,
+    visibility: arraySerializers,
+    visibility_err: arraySerializers,
+    curve_separation: arraySerializers,
+    curve_visibility: arraySerializers,
+    band_lower: arraySerializers,
+    band_upper: arraySerializers,
+  };
+}

@@ -1,0 +1,47 @@
+/** State of the model-comparison widget. */
+import { DOMWidgetModel } from "@jupyter-widgets/base";
+import { arraySerializers } from "./arrayWire.js";
+import { FringekitModel, moduleDefaults } from "./fringekitModel.js";
+
+/** One row of the comparison table (JSON; numbers SI or dimensionless). */
+export interface ComparisonRow {
+  label: string;
+  modelId: string;
+  nFree: number;
+  reducedChi2: number;
+  aic: number;
+  bic: number;
+  deltaAic: number;
+  /** Akaike weight, 0…1. */
+  weight: number;
+  converged: boolean;
+}
+
+/**
+ * Several fits of one profile: `curves` and `residuals` are k × n float64 arrays (one row per
+ * fit, in `table` order), `x` in m; `verdict` is the comparison's one-line conclusion.
+ */
+export class ComparisonModel extends FringekitModel {
+  override defaults() {
+    return {
+      ...super.defaults(),
+      ...moduleDefaults("ComparisonModel", "ComparisonView"),
+      title: "Model comparison",
+      x: null,
+      y: null,
+      y_unit: "counts",
+      curves: null,
+      residuals: null,
+      table: [],
+      verdict: "",
+    };
+  }
+
+  static override serializers = {
+    ...DOMWidgetModel.serializers,
+    x: arraySerializers,
+    y: arraySerializers,
+    curves: arraySerializers,
+    residuals: arraySerializers,
+  };
+}

@@ -1,0 +1,125 @@
+/**
+ * Shared frame of every fringekit widget view: a titled header with export actions and a
+ * plotly figure, resized with its container, and everything released again on remove.
+ */
+import { DOMWidgetView } from "@jupyter-widgets/base";
+import Plotly from "plotly.js-dist-min";
+import { h } from "./dom.js";
+import { ensureStyles } from "./styles.js";
+
+/** Plotly options every widget figure shares (no plotly logo, no cloud links). */
+export const plotConfig = {
+  displaylogo: false,
+  responsive: false,
+  modeBarButtonsToRemove: ["toImage", "lasso2d", "sendDataToCloud"],
+  scrollZoom: false,
+};
+
+/** Base view: builds `.fk-root` with a header (title, extra controls, export buttons) and a plot area. */
+export abstract class FigureView extends DOMWidgetView {
+  protected root!: HTMLDivElement;
+  protected head!: HTMLDivElement;
+  protected plotEl!: HTMLDivElement;
+  private resizeObserver: ResizeObserver | null = null;
+  private plotted = false;
+  private lastWidth = 0;
+
+  /** File name stem for exported images. */
+  protected abstract exportName(): string;
+
+  /** Build the frame; subclasses call this first in render(). */
+  protected buildFrame(title: string, plotHeight: number): void {
+    ensureStyles(this.el.ownerDocument);
+    this.el.classList.add("fk-widget");
+    this.plotEl = h("div", { class: "fk-plot", style: `min-height:${plotHeight}px` });
+    const svgButton = h("button", { type: "button", title: "Save the figure as SVG", "data-action": "export-svg" }, "SVG");
+    const pngButton = h("button", { type: "button", title: "Save the figure as PNG", "data-action": "export-png" }, "PNG");
+    svgButton.addEventListener("click", () => void this.exportImage("svg"));
+    pngButton.addEventListener("click", () => void this.exportImage("png"));
+    this.head = h("div", { class: "fk-head" }, h("span", { class: "fk-title" }, title));
+    this.root = h("div", { class: "fk-root" }, this.head);
+    this.head.append(h("span", { class: "fk-seg", role: "group", "aria-label": "Export figure" }, svgButton, pngButton));
+    this.el.append(this.root);
+    this.resizeObserver = new ResizeObserver(() => {
+      const width = this.plotEl.clientWidth;
+      if (this.plotted && width > 0 && Math.abs(width - this.lastWidth) > 2) {
+        this.lastWidth = width;
+        this.resized();
+      }
+    });
+    this.resizeObserver.observe(this.root);
+  }
+
+  /** The container changed width: fit the figure to it. */
+  protected resized(): void {
+    void Plotly.Plots.resize(this.plotEl);
+  }
+
+  /** Draw or redraw the whole figure. */
+  protected async drawFigure(data: Record<string, unknown>[], layout: Record<string, unknown>): Promise<void> {
+    const width = this.plotEl.clientWidth || 640;
+    this.lastWidth = width;
+    await Plotly.react(this.plotEl, data, { ...layout, width: undefined, autosize: true }, plotConfig);
+    this.plotted = true;
+  }
+
+  /** Save the figure from the browser (Plotly renders SVG or PNG and triggers a download). */
+  async exportImage(format: "svg" | "png"): Promise<void> {
+    const targets = this.exportTargets();
+    for (const [i, target] of targets.entries()) {
+      await Plotly.downloadImage(target, {
+        format,
+        filename: targets.length > 1 ? `${this.exportName()}-${i + 1}` : this.exportName(),
+        width: Math.max(target.clientWidth, 640),
+        height: Math.max(target.clientHeight, 400),
+        scale: format === "png" ? 2 : 1,
+      });
+    }
+  }
+
+  /** Plot elements the export action saves (one file each). */
+  protected exportTargets(): HTMLElement[] {
+    return [this.plotEl];
+  }
+
+  /** The figure as an image data URL (for tests and notebook exports). */
+  imageUrl(format: "svg" | "png"): Promise<string> {
+    return Plotly.toImage(this.plotEl, { format, width: 800, height: 500 });
+  }
+
+  override remove(): any {
+    this.resizeObserver?.disconnect();
+    this.resizeObserver = null;
+    for (const target of this.exportTargets()) Plotly.purge(target);
+    this.plotted = false;
+    return super.remove();
+  }
+}
+
+/** Plotly layout pieces shared by every widget figure. */
+export function baseLayout(extra: Record<string, unknown>): Record<string, unknown> {
+  return {
+    margin: { l: 64, r: 16, t: 14, b: 46 },
+    font: { family: "system-ui, -apple-system, Segoe UI, sans-serif", size: 12, color: "#1e293b" },
+    paper_bgcolor: "#ffffff",
+    plot_bgcolor: "#ffffff",
+    showlegend: true,
+    legend: { orientation: "h", x: 0, y: 1.02, yanchor: "bottom", bgcolor: "rgba(255,255,255,0)" },
+    hovermode: "closest",
+    ...extra,
+  };
+}
+
+/** An axis with light grid lines and a title. */
+export function axis(title: string, extra: Record<string, unknown> = {}): Record<string, unknown> {
+  return {
+    title: { text: title, standoff: 6 },
+    gridcolor: "#eef2f6",
+    zerolinecolor: "#cbd5e1",
+    linecolor: "#94a3b8",
+    ticks: "outside",
+    tickcolor: "#94a3b8",
+    automargin: true,
+    ...extra,
+  };
+}
