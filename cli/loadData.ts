@@ -78,6 +78,14 @@ function readFrame(path: string): ImageStack {
 export function loadData(path: string, args: ParsedArgs): LoadedProfile {
   const bytes = readInputFile(path);
   const loaded = readProfile(bytes, profileOptions(args, path));
-  if (loaded.profile.provenance) loaded.profile.provenance.source = basename(path);
+  const provenance = loaded.profile.provenance;
+  if (provenance) {
+    provenance.source = basename(path);
+    // Name the dark and flat files (the library records only that they were used).
+    for (const option of ["dark", "flat"] as const) {
+      const file = args.values.get(option);
+      if (file !== undefined) provenance.options[option] = basename(file);
+    }
+  }
   return loaded;
 }

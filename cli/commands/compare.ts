@@ -1,6 +1,5 @@
 /** `fringekit compare FILE --models A,B,... [fit settings] [--json]`. */
-import { compareFits, comparisonJson, comparisonTable, getModel, tableToText, type FitResult } from "../../src/index.js";
-import { fitter } from "../engine.js";
+import { compareFits, comparisonDocument, comparisonJson, comparisonTable, fitProfile, getModel, stringifyResults, tableToText, type FitResult } from "../../src/index.js";
 import { fitSettings } from "../fitSettings.js";
 import { writeOutputFile } from "../files.js";
 import { loadData } from "../loadData.js";
@@ -18,12 +17,14 @@ export function compareCommand(words: readonly string[]): CommandOutput {
   const path = args.positionals[0]!;
   const loaded = loadData(path, args);
   const fits: FitResult[] = [];
+  const fitOptions: Record<string, unknown>[] = [];
   for (const id of ids) {
     const model = getModel(id);
     // --set/--fix name parameters of any of the models; each model takes the ones it has.
     const own = (words: readonly string[]): string[] => words.filter((w) => model.parameters.some((p) => p.name === w.split("=")[0]!.trim()));
     const settings = fitSettings(model, own(args.lists.get("set") ?? []), own(args.lists.get("fix") ?? []), args.values.get("noise"));
-    fits.push(fitter()(loaded.profile, model, settings));
+    fits.push(fitProfile(loaded.profile, model, settings));
+    fitOptions.push({ ...settings });
   }
   const comparison = compareFits(fits.map((fit) => ({ fit, profile: loaded.profile })), { profile: loaded.profile });
   const json = comparisonJson(comparison);
@@ -31,7 +32,9 @@ export function compareCommand(words: readonly string[]): CommandOutput {
     ? `${JSON.stringify(json, null, 2)}\n`
     : `${tableToText(comparisonTable(fits.map((result, i) => ({ label: ids[i]!, result })), { verdict: comparison.verdict, notes: loaded.warnings }))}\n`;
   const out = args.values.get("out");
-  if (out !== undefined) writeOutputFile(out, out.endsWith(".json") ? `${JSON.stringify(json, null, 2)}\n` : text, [path]);
+  // A .json output is the versioned results file that `fringekit replay` re-runs.
+  const document = (): string => stringifyResults(comparisonDocument(loaded.profile, fits.map((result, i) => ({ label: ids[i]!, result, fitOptions: fitOptions[i]! })), { verdict: comparison.verdict }));
+  if (out !== undefined) writeOutputFile(out, out.endsWith(".json") ? document() : text, [path]);
   const allConverged = fits.every((f) => f.converged);
   return { stdout: text, exitCode: allConverged ? 0 : 1, ...(allConverged ? {} : { error: `${path}: ${fits.filter((f) => !f.converged).map((f) => f.modelId).join(", ")} did not converge` }) };
 }

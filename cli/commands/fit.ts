@@ -1,6 +1,6 @@
 /** `fringekit fit FILE [--model ID] [--set ...] [--fix ...] [--noise ...] [--json] [--out FILE]`. */
-import { checkCountsForPoisson, fitTable, getModel, tableToText, type FitResult, type LoadedProfile } from "../../src/index.js";
-import { fitter } from "../engine.js";
+import { checkCountsForPoisson, fitDocument, fitProfile, fitTable, getModel, stringifyResults, tableToText, type FitResult, type LoadedProfile } from "../../src/index.js";
+import type { CommandFitOptions } from "../engine.js";
 import { fitJson } from "../fitJson.js";
 import { fitSettings } from "../fitSettings.js";
 import { writeOutputFile } from "../files.js";
@@ -23,14 +23,14 @@ export const FIT_OPTIONS = {
 export const DEFAULT_MODEL = "two-slit";
 
 /** Fits one file with one model. */
-export function fitFile(path: string, modelId: string, args: ParsedArgs): { loaded: LoadedProfile; result: FitResult; warnings: string[] } {
+export function fitFile(path: string, modelId: string, args: ParsedArgs): { loaded: LoadedProfile; result: FitResult; warnings: string[]; settings: CommandFitOptions } {
   const loaded = loadData(path, args);
   const model = getModel(modelId);
   const settings = fitSettings(model, args.lists.get("set") ?? [], args.lists.get("fix") ?? [], args.values.get("noise"));
   const warnings = [...loaded.warnings];
   if (settings.noise === "poisson") warnings.push(...checkCountsForPoisson(loaded.profile));
-  const result = fitter()(loaded.profile, model, settings);
-  return { loaded, result, warnings };
+  const result = fitProfile(loaded.profile, model, settings);
+  return { loaded, result, warnings, settings };
 }
 
 /** Runs the fit command. */
@@ -39,11 +39,12 @@ export function fitCommand(words: readonly string[]): CommandOutput {
   if (args.positionals.length !== 1) throw new UsageError(`fit needs exactly one data file (got ${args.positionals.length})`);
   if (args.values.has("figure")) throw new UsageError("--figure is not available in this build (figure export is not wired yet)");
   const path = args.positionals[0]!;
-  const { loaded, result, warnings } = fitFile(path, args.values.get("model") ?? DEFAULT_MODEL, args);
+  const { loaded, result, warnings, settings } = fitFile(path, args.values.get("model") ?? DEFAULT_MODEL, args);
   const json = fitJson(result, loaded.profile.provenance, warnings);
   const text = args.flags.has("json") ? `${JSON.stringify(json, null, 2)}\n` : `${tableToText(fitTable(result, { source: loaded.profile.provenance?.source ?? path, notes: warnings }))}\n`;
   const out = args.values.get("out");
-  if (out !== undefined) writeOutputFile(out, out.endsWith(".json") ? `${JSON.stringify(json, null, 2)}\n` : text, [path]);
+  // A .json output is the versioned results file that `fringekit replay` re-runs; other names get the printed text.
+  if (out !== undefined) writeOutputFile(out, out.endsWith(".json") ? stringifyResults(fitDocument(loaded.profile, { result, fitOptions: { ...settings } })) : text, [path]);
   return {
     stdout: out !== undefined && !args.flags.has("json") ? `${text}` : text,
     exitCode: result.converged ? 0 : 1,

@@ -18,3 +18,4 @@ export * from "./measureTilt.js";
 export * from "./frameToLine.js";
 export * from "./readProfile.js";
 export * from "./checkCounts.js";
+export * from "./readOptionsFromRecord.js";

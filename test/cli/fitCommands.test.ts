@@ -1,0 +1,114 @@
+import { mkdtempSync, readFileSync, rmSync, writeFileSync } from "node:fs";
+import { tmpdir } from "node:os";
+import { join } from "node:path";
+import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { getModel, pixelPositions, simulateProfile } from "../../src/index.js";
+import { runCli, runInProcess } from "./runCli.js";
+
+// B1-like camera line (../shared/bench/PROBLEMS.md) with fewer pixels; the truth is what the
+// data were simulated from (common practice for checking a fit on seeded synthetic data).
+const TRUTH = { amplitude: 20000, background: 150, center: 0.37e-3, separation: 0.5e-3, width: 0.1e-3, visibility: 0.85, phase: 0.3, wavelength: 632.8e-9, distance: 1 };
+const work = mkdtempSync(join(tmpdir(), "fringekit-fit-"));
+afterAll(() => rmSync(work, { recursive: true, force: true }));
+
+function writeLine(name: string, seed: number): string {
+  const model = getModel("two-slit");
+  const x = pixelPositions(2048, 5.5e-6);
+  const data = simulateProfile(model, TRUTH, x, { noise: "poisson", seed });
+  const rows = Array.from(data.x, (xi, i) => `${(xi * 1e3).toFixed(6)},${data.y[i]}`);
+  const path = join(work, name);
+  writeFileSync(path, `# simulated camera line (seed ${seed})\nposition [mm],intensity (counts)\n${rows.join("\n")}\n`);
+  return path;
+}
+
+let line: string;
+beforeAll(() => {
+  line = writeLine("line.csv", 11);
+});
+
+describe("fringekit fit FILE", () => {
+  it("fringekit fit line.csv --json prints the documented object with SI values near the truth", async () => {
+    const { code, stdout } = await runInProcess(["fit", line, "--json"]);
+    expect(code).toBe(0);
+    const json = JSON.parse(stdout);
+    expect(Object.keys(json)).toEqual(["model", "converged", "reason", "params", "stats", "warnings", "provenance"]);
+    expect(Object.keys(json.stats)).toEqual(["n", "dof", "chi2", "reducedChi2", "logLikelihood", "aic", "aicc", "bic"]);
+    expect(json.model).toBe("two-slit");
+    expect(json.converged).toBe(true);
+    expect(Object.keys(json.params.separation)).toEqual(["value", "stderr", "unit", "fixed"]);
+    for (const name of ["separation", "width", "visibility", "center"] as const) {
+      const p = json.params[name];
+      expect(Math.abs(p.value - TRUTH[name]) / p.stderr, name).toBeLessThan(4);
+    }
+    expect(json.params.wavelength).toMatchObject({ value: 632.8e-9, stderr: 0, unit: "m", fixed: true });
+    expect(json.stats.n).toBe(2048);
+    expect(json.provenance.source).toBe("line.csv");
+    expect(json.provenance.sha256).toMatch(/^[0-9a-f]{64}$/);
+  });
+
+  it("fringekit fit line.csv --set wavelength=632.8 nm --fix visibility=0.85 uses units with or without a space", async () => {
+    const { code, stdout } = await runInProcess(["fit", line, "--set", "wavelength=632.8 nm", "--set", "separation=0.49mm", "--fix", "visibility=0.85", "--json"]);
+    expect(code).toBe(0);
+    const json = JSON.parse(stdout);
+    expect(json.params.visibility).toMatchObject({ value: 0.85, fixed: true });
+    expect(json.params.wavelength.value).toBeCloseTo(632.8e-9, 20);
+  });
+
+  it("fringekit fit line.csv (text) prints value ± uncertainty with units", async () => {
+    const { code, stdout } = await runInProcess(["fit", line]);
+    expect(code).toBe(0);
+    expect(stdout).toMatch(/separation d\s+\(\d+\.\d+ ± \d+\.\d+\) µm/);
+  });
+
+  it("fringekit fit with a bad --set is a usage error naming the parameter", async () => {
+    const unknown = await runInProcess(["fit", line, "--set", "colour=3"]);
+    expect(unknown.code).toBe(2);
+    expect(unknown.stderr).toMatch(/model "two-slit" has no parameter "colour"/);
+    const badUnit = await runInProcess(["fit", line, "--set", "wavelength=3kg"]);
+    expect(badUnit.code).toBe(2);
+    expect(badUnit.stderr).toMatch(/invalid --set wavelength: "3kg" \(the unit "kg" is not a length unit/);
+  });
+
+  it("fringekit fit --out res.json then fringekit replay res.json reproduces; changed data are refused", async () => {
+    const copy = join(work, "replay.csv");
+    writeFileSync(copy, readFileSync(line));
+    const results = join(work, "res.json");
+    expect((await runInProcess(["fit", copy, "--out", results])).code).toBe(0);
+    const replay = await runInProcess(["replay", results]);
+    expect(replay.code).toBe(0);
+    expect(replay.stdout).toMatch(/^Reproduced: 1 fit \(two-slit\)/);
+    writeFileSync(copy, readFileSync(copy, "utf8").replace(/\n(-?[\d.]+),(\d+)\n/, (_, x, y) => `\n${x},${Number(y) + 1}\n`));
+    const changed = await runInProcess(["replay", results]);
+    expect(changed.code).toBe(2);
+    expect(changed.stderr).toMatch(/does not match .* recorded for replay\.csv/);
+  });
+});
+
+describe("fringekit compare FILE --models", () => {
+  it("fringekit compare line.csv --models two-slit,single-slit --json ranks two-slit first", async () => {
+    const { code, stdout } = await runInProcess(["compare", line, "--models", "two-slit,single-slit", "--json"]);
+    expect(code).toBe(0);
+    const json = JSON.parse(stdout);
+    expect(json.preferred).toBe("two-slit");
+    expect(Object.keys(json.ranking[0])).toEqual(expect.arrayContaining(["model", "aic", "bic", "deltaAic", "weight"]));
+    expect(json.ranking.map((r: { model: string }) => r.model)).toEqual(["two-slit", "single-slit"]);
+    expect(typeof json.verdict).toBe("string");
+  });
+});
+
+describe("fringekit batch FILES --out", () => {
+  it("fringekit batch 3 good files + 1 bad --jobs 2 writes one row per file and does not stop", () => {
+    const files = [writeLine("b1.csv", 21), writeLine("b2.csv", 22), join(work, "bad.csv"), writeLine("b3.csv", 23)];
+    writeFileSync(files[2]!, "position [mm],intensity\n0.1,1\n0.1,2\n0.2,3\n");
+    const out = join(work, "results.csv");
+    const { code, stderr } = runCli(["batch", ...files, "--jobs", "2", "--out", out]);
+    expect(code).toBe(1); // one file could not be fitted; the others are in the results
+    expect(stderr).toMatch(/4 files: 3 fitted, 0 did not converge, 1 could not be read or fitted/);
+    const rows = readFileSync(out, "utf8").trim().split("\n");
+    expect(rows).toHaveLength(5);
+    expect(rows[0]).toMatch(/^file,status,message,n,reducedChi2,aic,bic,amplitude,amplitude_stderr,/);
+    expect(rows[1]).toMatch(/b1\.csv,ok,/);
+    expect(rows[3]).toMatch(/bad\.csv,error,.*duplicated position 0\.1/);
+    expect(rows[4]).toMatch(/b3\.csv,ok,/);
+  });
+});
