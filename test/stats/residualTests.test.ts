@@ -1,6 +1,6 @@
 import { describe, expect, it } from "vitest";
-import { autocorrelation, durbinWatson, lombScarglePower, periodicityAt, runsTest } from "../../src/stats/index.js";
-import { seeded } from "./fakeFit.js";
+import { autocorrelation, durbinWatson, lombScarglePower, periodicityAt, residualDiagnostics, runsTest } from "../../src/stats/index.js";
+import { fakeFit, seeded } from "./fakeFit.js";
 import { expectClose, python, scipyMissing } from "./python.js";
 
 describe("residual tests", () => {
@@ -57,5 +57,35 @@ describe("residual tests", () => {
         "p = lombscargle(x, r, 2*np.pi*np.array(data['f']), precenter=True)\nprint(json.dumps(list(p / np.var(r, ddof=1))))",
       { x, r, f: freqs });
     freqs.forEach((f, i) => expectClose(lombScarglePower(x, r, f), ref[i], 1e-9, `LS power at ${f}`));
+  });
+});
+
+describe("residualDiagnostics", () => {
+  it("residualDiagnostics(fit, { x }) flags about 1 % of white-noise residual sets at alpha = 0.01", () => {
+    const n = 300;
+    const x = Float64Array.from({ length: n }, (_, i) => i * 5e-6);
+    let flagged = 0;
+    const sets = 200;
+    for (let s = 0; s < sets; s++) {
+      const rng = seeded(5000 + s);
+      const fit = fakeFit({ modelId: "two-slit", free: ["amplitude"], values: { amplitude: 1, separation: 0.5e-3, wavelength: 632.8e-9, distance: 1 },
+        logLikelihood: 0, chi2: n, n, residuals: Float64Array.from({ length: n }, () => rng.normal()) });
+      if (residualDiagnostics(fit, { x }).structured) flagged++;
+    }
+    // Expected 2 of 200 at the nominal level (Bonferroni is conservative); 8 or more has a
+    // binomial tail probability near 1e-3 (common practice for a calibration check).
+    expect(flagged).toBeLessThan(8);
+  });
+  it("residualDiagnostics(fit) flags a slow drift through the runs test and the lag-1 autocorrelation", () => {
+    const n = 500;
+    const rng = seeded(9);
+    const residuals = Float64Array.from({ length: n }, (_, i) => rng.normal() + 1.5 * Math.sin(i / 40));
+    const fit = fakeFit({ modelId: "single-slit", free: ["amplitude"], values: { amplitude: 1 }, logLikelihood: 0, chi2: n, n, residuals });
+    const d = residualDiagnostics(fit);
+    expect(d.structured).toBe(true);
+    expect(d.periodicity).toBeUndefined();
+    expect(d.reasons.join(" ")).toMatch(/too few sign runs/);
+    expect(d.reasons.join(" ")).toMatch(/lag-1 autocorrelation/);
+    expect(d.durbinWatson).toBeLessThan(1.5);
   });
 });
