@@ -13,8 +13,10 @@ export interface ComparisonEntry {
   label?: string;
 }
 
+/** Information criterion that ranks the models. */
 export type Criterion = "aic" | "aicc" | "bic";
 
+/** Options of compareFits. */
 export interface CompareOptions {
   /** The data all fits used (positions for the periodicity test, fingerprint check). */
   profile?: Profile;
@@ -26,6 +28,7 @@ export interface CompareOptions {
   alpha?: number;
 }
 
+/** One row of the comparison table (criteria dimensionless, χ² of the normalised residuals). */
 export interface ModelComparisonRow {
   label: string;
   modelId: string;
@@ -47,6 +50,7 @@ export interface ModelComparisonRow {
   diagnostics: ResidualDiagnostics;
 }
 
+/** Everything compareFits returns: table, preferred fit, tests, warnings and verdict. */
 export interface ComparisonResult {
   criterion: Criterion;
   noise: FitResult["noise"];

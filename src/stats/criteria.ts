@@ -7,6 +7,7 @@
 import { InvalidArgumentError } from "../errors.js";
 import type { FitResult } from "../fit/types.js";
 
+/** AIC, AICc and BIC of one fit with the counts behind them. */
 export interface InformationCriteria {
   /** Points used. */
   n: number;

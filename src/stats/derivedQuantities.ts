@@ -12,6 +12,7 @@ import { measuredExtrema, type Extremum } from "./measuredExtrema.js";
 import type { Calibration, DerivedQuantity, Measured } from "./quantity.js";
 import { sourceSize } from "./sourceSize.js";
 
+/** Options of derivedQuantities. */
 export interface DerivedOptions {
   /** The profile the fit used: enables predicted maxima in range and measured extrema. */
   profile?: Profile;
@@ -22,6 +23,7 @@ export interface DerivedOptions {
   level?: number;
 }
 
+/** What derivedQuantities returns; every number is SI with its standard uncertainty. */
 export interface DerivedReport {
   quantities: DerivedQuantity[];
   /** Maxima predicted by the fit inside the profile (order, position ± u). */

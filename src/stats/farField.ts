@@ -9,6 +9,7 @@ import { farFieldCheck } from "../physics/formulas.js";
 import { findFitParameter, requireFitParameter } from "./fitParameters.js";
 import { derivedQuantity, propagateDerived, type Calibration, type DerivedQuantity, type Values } from "./quantity.js";
 
+/** Result of farFieldValidity: Fresnel numbers (dimensionless) ± u and the verdict on the far-field model. */
 export interface FarFieldValidity {
   fresnelNumber: DerivedQuantity;
   offsetNumber: DerivedQuantity;

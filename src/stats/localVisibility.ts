@@ -13,6 +13,7 @@ import type { Profile } from "../profile.js";
 import { requireFitParameter } from "./fitParameters.js";
 import { solveNormalEquations } from "./linearLeastSquares.js";
 
+/** Visibility measured around one fringe maximum. */
 export interface LocalVisibility {
   /** Path difference in wavelengths at the window centre (1). */
   order: number;

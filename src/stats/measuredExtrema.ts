@@ -12,6 +12,7 @@ import { requireFitParameter } from "./fitParameters.js";
 import { invertMatrix } from "./linearLeastSquares.js";
 import type { Calibration, DerivedQuantity } from "./quantity.js";
 
+/** One measured maximum or minimum (position in m). */
 export interface Extremum {
   kind: "maximum" | "minimum";
   /** Fringe order: m for maxima, m + ½ for minima. */

@@ -9,6 +9,7 @@ import type { FitResult } from "../fit/types.js";
 import { chiSquaredSurvival } from "./chiSquared.js";
 import { fSurvival } from "./fDistribution.js";
 
+/** Likelihood-ratio and F test of one nested pair of fits. */
 export interface NestedTestResult {
   /** Labels of the simpler and the larger fit. */
   simpler: string;

@@ -8,6 +8,7 @@ import type { FitResult } from "../fit/types.js";
 import { fringeFrequencyOf } from "./fitParameters.js";
 import { autocorrelation, durbinWatson, lombScarglePower, runsTest, type RunsTestResult } from "./residualTests.js";
 
+/** Leftover periodicity of the residuals at the fringe frequency (cycles per metre). */
 export interface PeriodicityResult {
   /** Fringe frequency tested (cycles per metre) and its first harmonic. */
   frequency: number;
@@ -22,6 +23,7 @@ export interface PeriodicityResult {
   pValue: number;
 }
 
+/** Summary of the residual tests of one fit. */
 export interface ResidualDiagnostics {
   /** Finite residuals used. */
   n: number;
@@ -39,6 +41,7 @@ export interface ResidualDiagnostics {
   reasons: string[];
 }
 
+/** Options of residualDiagnostics. */
 export interface ResidualDiagnosticsOptions {
   /** Detector positions (m) of every residual; needed for the periodicity test. */
   x?: ArrayLike<number>;

@@ -9,6 +9,7 @@
 import { InvalidArgumentError } from "../errors.js";
 import { normalCdf, normalTwoSided } from "./normal.js";
 
+/** Result of the Wald–Wolfowitz runs test. */
 export interface RunsTestResult {
   /** Number of runs of equal sign (zeros skipped). */
   runs: number;

@@ -10,6 +10,7 @@ import { getModel } from "../physics/registry.js";
 
 /** Shapes of source the joint model knows, and the parameter that measures each. */
 export const SOURCE_SHAPES = { disc: "diameter", gaussian: "rmsSize" } as const;
+/** Source shapes of twoSlitSourceModel. */
 export type SourceShape = keyof typeof SOURCE_SHAPES;
 
 /**
