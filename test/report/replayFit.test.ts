@@ -5,6 +5,8 @@ import { fitProfile } from "../../src/fit/fitProfile.js";
 import { readTable } from "../../src/io/parseTable.js";
 import { getModel } from "../../src/physics/registry.js";
 import { pixelPositions, simulateProfile } from "../../src/physics/simulate.js";
+import { profileCurve } from "../../src/report/figures/profileCurve.js";
+import { profileLikelihoodFigure } from "../../src/report/figures/profileLikelihoodFigure.js";
 import { replayResults } from "../../src/report/results/replay.js";
 import { fitDocument, parseResults, stringifyResults } from "../../src/report/results/resultsDocument.js";
 import { TWO_SLIT_TRUTH } from "./figureExamples.js";
@@ -57,5 +59,27 @@ describe("replayResults(doc, profile) with fitProfile", () => {
     expect(report.reproduced).toBe(false);
     expect(report.differences.map((d) => d.quantity)).toContain("visibility fixed");
     expect(report.summary).toMatch(/^NOT reproduced/);
+  });
+});
+
+describe("profileCurve(result, profile, model, name) with fitProfile", () => {
+  const { profile } = readTable(csvBytes(11), { source: "scan-11.csv" });
+  const model = getModel("two-slit");
+  const result = fitProfile(profile, model, { start: START, noise: "poisson" });
+  it("is 0 at the best fit and ≈ 1 one standard error away (Wilks 1938: Δχ² ~ χ²₁; quadratic near the optimum)", () => {
+    const curve = profileCurve(result, profile, model, "separation", { points: 7, span: 3 });
+    const d = Array.from(curve.deltaObjective);
+    expect(d[3]).toBeLessThan(1e-3);
+    // grid at −3, −2, −1, 0, 1, 2, 3 standard errors
+    expect(d[2]).toBeGreaterThan(0.85);
+    expect(d[2]).toBeLessThan(1.15);
+    expect(d[4]).toBeGreaterThan(0.85);
+    expect(d[4]).toBeLessThan(1.15);
+    expect(d[0]).toBeGreaterThan(7);
+    const fig = profileLikelihoodFigure([curve]);
+    expect(fig.data.map((t) => t.name)).toEqual(["profile", "quadratic (covariance)"]);
+  });
+  it("refuses a fixed parameter by name", () => {
+    expect(() => profileCurve(result, profile, model, "wavelength")).toThrow(/invalid parameter: "wavelength" \(a free parameter of the fit: /);
   });
 });

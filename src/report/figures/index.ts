@@ -9,3 +9,4 @@ export * from "./comparisonFigure.js";
 export * from "./coherenceScanFigure.js";
 export * from "./correlationFigure.js";
 export * from "./profileLikelihoodFigure.js";
+export * from "./profileCurve.js";
