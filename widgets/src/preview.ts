@@ -53,13 +53,21 @@ export function paramVector(model: Model, params: Record<string, ParamState>, ou
   return out;
 }
 
-/** Explorer state for a model: its parameters' defaults, keeping values the old state already had. */
+/**
+ * Explorer state for a model: its parameters' defaults, keeping values the old state already had.
+ * Infinite bounds arrive as null (JSON has no Infinity) and become ±Infinity again here.
+ */
 export function paramsForModel(model: Model, previous: Record<string, ParamState> = {}): Record<string, ParamState> {
   const next: Record<string, ParamState> = {};
   for (const spec of model.parameters) {
     const old = previous[spec.name];
     next[spec.name] = old !== undefined
-      ? { ...old }
+      ? {
+          value: typeof old.value === "number" ? old.value : spec.default,
+          fixed: old.fixed === true,
+          lower: typeof old.lower === "number" ? old.lower : -Infinity,
+          upper: typeof old.upper === "number" ? old.upper : Infinity,
+        }
       : { value: spec.default, fixed: spec.fixedByDefault === true || spec.integer === true, lower: spec.lower, upper: spec.upper };
   }
   return next;
