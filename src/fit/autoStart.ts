@@ -83,22 +83,29 @@ export function autoStartCandidates(x: Float64Array, y: Float64Array, wavelength
   const centerIndex = best / 2;
   const center = x[0] + centerIndex * dx;
 
-  // 4. Width from the envelope's fall-off.
+  // 4. Width from the envelope's fall-off, relative to a background level.
   const ci = Math.min(n - 1, Math.max(0, Math.round(centerIndex)));
-  const top = envelope[ci] - background0;
   const sine = (u: number): number => (smallAngle ? u / distance : u / Math.sqrt(u * u + distance * distance));
-  const widths: number[] = [];
-  if (top > 0) {
-    for (let i = 0; i < n; i += Math.max(1, Math.floor(period / 2))) {
-      const ratio = (envelope[i] - background0) / top;
-      const s = Math.abs(sine(x[0] + i * dx - center));
-      if (ratio > 0.15 && ratio < 0.85 && s > 0) widths.push((sincSquaredInverse(ratio) * wavelength) / (Math.PI * s));
-    }
-  }
-  widths.sort((p, q) => p - q);
   const span = Math.max(Math.abs(sine(x[0] - center)), Math.abs(sine(x[n - 1] - center)));
-  // No fall-off seen: the envelope is wider than the window; start with its first null at twice the half-span.
-  const width = widths.length > 0 ? widths[Math.floor(widths.length / 2)] : wavelength / (2 * span);
+  const widthFor = (background: number): number => {
+    const top = envelope[ci] - background;
+    const widths: number[] = [];
+    if (top > 0) {
+      for (let i = 0; i < n; i += Math.max(1, Math.floor(period / 2))) {
+        const ratio = (envelope[i] - background) / top;
+        const s = Math.abs(sine(x[0] + i * dx - center));
+        if (ratio > 0.15 && ratio < 0.85 && s > 0) widths.push((sincSquaredInverse(ratio) * wavelength) / (Math.PI * s));
+      }
+    }
+    widths.sort((p, q) => p - q);
+    // No fall-off seen: the envelope is wider than the window; start with its first null at twice the half-span.
+    return widths.length > 0 ? widths[Math.floor(widths.length / 2)] : wavelength / (2 * span);
+  };
+  // The 2nd-percentile level overestimates the background when the envelope fills the window:
+  // one refinement with the background of a linear fit at the first width.
+  let width = widthFor(background0);
+  const firstPass = linearFringeFit(grid, x[0], dx, center, separation, width, wavelength, sine);
+  if (firstPass) width = widthFor(Math.min(firstPass.start.background, background0));
 
   // 5. Linear least squares for background, amplitude, visibility, phase at neighbouring frequencies.
   const binStep = 0.25 / (size * dx / 4) / frequency; // a quarter of an unpadded bin, relative

@@ -305,12 +305,22 @@ export function fitProfile(profile: Profile, model: Model, options: FitOptions =
   return summarize(prep, bestOf(prep, candidates), warnings);
 }
 
-/** Fits from each candidate start and keeps the converged outcome with the lowest objective. */
+/**
+ * Fits from each candidate start and keeps the converged outcome with the lowest objective.
+ * When the noise scale is known (Poisson, or σ absolute), a converged fit whose objective is
+ * within 5 standard deviations of its expectation (dof ± 5√(2·dof), χ² statistics) ends the
+ * search early: a wrong fringe order or phase branch leaves a far larger objective.
+ */
 export function bestOf(prep: PreparedFit, candidates: Record<string, number>[]): SolverOutcome {
   let best: SolverOutcome | null = null;
+  const dof = prep.x.length - prep.plan.free.length;
+  const knownScale = prep.noise.id === "poisson" || (prep.noise.id === "gaussian" && prep.sigmaAbsolute && prep.noise.sigmaSource !== "unknown");
   for (const candidate of candidates) {
     const outcome = solvePrepared(prep, startVector(prep, candidate));
     if (outcome.reason === "cancelled") return outcome;
+    if (knownScale && STOP_REASONS[outcome.reason].converged && outcome.cost <= dof + 5 * Math.sqrt(2 * dof)) {
+      if (best === null || outcome.cost < best.cost || !STOP_REASONS[best.reason].converged) return outcome;
+    }
     const better = best === null
       || (STOP_REASONS[outcome.reason].converged && !STOP_REASONS[best.reason].converged)
       || (STOP_REASONS[outcome.reason].converged === STOP_REASONS[best.reason].converged && outcome.cost < best.cost);

@@ -3,6 +3,7 @@ import { describe, expect, it } from "vitest";
 import { b1Profile, fitB1, runScipy, scipyAvailable } from "../../bench/B1.js";
 import { NIST_DIR, parseNistFile } from "../../bench/nist.js";
 import { InvalidArgumentError } from "../../src/errors.js";
+import { autoStartCandidates } from "../../src/fit/autoStart.js";
 import { fitProfile } from "../../src/fit/fitProfile.js";
 import { formulaModel } from "../../src/fit/formulaModel.js";
 import { getModel, pixelPositions, simulateProfile } from "../../src/physics/index.js";
@@ -129,4 +130,42 @@ describe("fitProfile(profile, model, options)", () => {
     expect(result.statistics.logLikelihood).toBeCloseTo(ll, 6);
     expect(result.statistics.aic).toBeCloseTo(-2 * ll + 2 * result.statistics.nFree, 6);
   });
+
+  it("returns a result, not an exception, when the fit stops early or cannot start", () => {
+    const early = fitProfile(profile, model, { fix: { pixelWidth: 11e-6 }, autoStart: false, maxEvaluations: 3 });
+    expect(early.converged).toBe(false);
+    expect(early.reason).toBe("max-evaluations");
+    expect(early.warnings.some((w) => w.code === "not-converged")).toBe(true);
+    const line: Profile = { x: Float64Array.from([1, 2, 3, 4]), y: Float64Array.from([1, 2, 3, 4]), yUnit: "1", counts: false };
+    const bad = fitProfile(line, formulaModel("sqrt(a - 5) * x"), { start: { a: 1 } });
+    expect(bad.converged).toBe(false);
+    expect(bad.reason).toBe("invalid-start");
+  });
+
+  it("reports an infinite uncertainty and a warning for parameters the data cannot separate", () => {
+    const line: Profile = { x: Float64Array.from([1, 2, 3, 4, 5]), y: Float64Array.from([2.1, 3.9, 6.2, 7.8, 10.1]), yUnit: "1", counts: false };
+    const result = fitProfile(line, formulaModel("a*b*x"), { start: { a: 1, b: 1 } });
+    expect(result.parameters.every((p) => p.stderr === Infinity)).toBe(true);
+    expect(result.warnings.some((w) => w.code === "singular-covariance")).toBe(true);
+  });
 });
+
+describe("autoStartCandidates(x, y, wavelength, distance)", () => {
+  it("recovers separation within 1 %, width within 25 % and the centre within a tenth of a fringe on simulated data", () => {
+    const model = getModel("two-slit");
+    const x = pixelPositions(2048, 5.5e-6);
+    for (const [seed, truth] of [
+      [1, { separation: 0.3e-3, width: 0.06e-3, center: -0.2e-3, visibility: 0.5, phase: 2 }],
+      [2, { separation: 1.2e-3, width: 0.15e-3, center: 0.4e-3, visibility: 0.9, phase: -1 }],
+    ] as const) {
+      const profile = simulateProfile(model, { amplitude: 3000, background: 40, ...truth }, x, { noise: "poisson", seed });
+      const [best] = autoStartCandidates(profile.x, profile.y, 632.8e-9, 1);
+      expect(Math.abs(best.separation / truth.separation - 1)).toBeLessThan(0.01);
+      // Width is only a start: in the first case the envelope fills most of the window.
+      expect(Math.abs(best.width / truth.width - 1)).toBeLessThan(0.25);
+      const fringe = 632.8e-9 / truth.separation;
+      expect(Math.abs(best.center - truth.center)).toBeLessThan(0.1 * fringe);
+    }
+  });
+});
+
