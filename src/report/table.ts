@@ -25,20 +25,20 @@ export interface ReportTable {
 
 /** HTML table with caption and notes; inline styles only, so it survives notebook sanitisers. */
 export function tableToHtml(table: ReportTable): string {
-  const cell = (tag: string, content: string, align: string) => `<${tag} style="text-align:${align}">${content}</${tag}>`;
+  const cell = (tag: string, content: string, align: string) => `<${tag} style="text-align:${align};padding:1px 8px">${content}</${tag}>`;
   const side = (i: number) => (table.align[i] === "r" ? "right" : "left");
   const head = table.columns.map((c, i) => cell("th", escapeHtml(c), side(i))).join("");
   const body = table.rows
     .map((row) =>
       "section" in row
-        ? `<tr><th colspan="${table.columns.length}" style="text-align:left">${escapeHtml(row.section)}</th></tr>`
+        ? `<tr><th colspan="${table.columns.length}" style="text-align:left;padding:6px 8px 1px">${escapeHtml(row.section)}</th></tr>`
         : `<tr>${row.cells.map((c, i) => cell("td", cellHtml(c), side(i))).join("")}</tr>`,
     )
     .join("\n");
   const notes = table.notes.length
-    ? `\n<tfoot>${table.notes.map((n) => `<tr><td colspan="${table.columns.length}" style="text-align:left"><small>${escapeHtml(n)}</small></td></tr>`).join("")}</tfoot>`
+    ? `\n<tfoot>${table.notes.map((n) => `<tr><td colspan="${table.columns.length}" style="text-align:left;padding:1px 8px"><small>${escapeHtml(n)}</small></td></tr>`).join("")}</tfoot>`
     : "";
-  return `<table class="fringekit-table">\n<caption>${escapeHtml(table.caption)}</caption>\n<thead><tr>${head}</tr></thead>\n<tbody>\n${body}\n</tbody>${notes}\n</table>`;
+  return `<table class="fringekit-table" style="border-collapse:collapse;font-variant-numeric:tabular-nums">\n<caption>${escapeHtml(table.caption)}</caption>\n<thead><tr>${head}</tr></thead>\n<tbody>\n${body}\n</tbody>${notes}\n</table>`;
 }
 
 /** GitHub-flavoured Markdown table; the caption in bold above, notes as a list below. */

@@ -11,7 +11,7 @@ describe("rich display through the kernel's mime-bundle protocol", () => {
   const { profile, result } = fitExample();
   it("mimeBundleOf(fitReport(result)) gives the HTML table, Markdown and text", () => {
     const { data } = mimeBundleOf(fitReport(result));
-    expect(data["text/html"]).toMatch(/^<table class="fringekit-table">/);
+    expect(data["text/html"]).toMatch(/^<table class="fringekit-table"/);
     expect(data["text/markdown"]).toMatch(/\| Parameter \| Value \|/);
     expect(data["text/plain"]).toMatch(/^Fit of model two-slit/);
   });
