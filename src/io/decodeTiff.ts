@@ -64,6 +64,11 @@ function decodePage(bytes: Uint8Array, buffer: ArrayBuffer, page: TiffPage, litt
       ? (at: number): number => view.getUint16(at, le16)
       : (at: number): number => raw[at] as number;
   if (spp === 1 && bytesPerSample === 1) (out as Uint8Array).set(raw.subarray(0, pixels));
+  else if (spp === 1 && bytesPerSample === 2 && page.sampleFormat !== 3) {
+    const o = out as Uint16Array;
+    if (le16) for (let i = 0, j = 0; i < pixels; i++, j += 2) o[i] = raw[j]! | (raw[j + 1]! << 8);
+    else for (let i = 0, j = 0; i < pixels; i++, j += 2) o[i] = (raw[j]! << 8) | raw[j + 1]!;
+  }
   else if (spp === 1) for (let i = 0; i < pixels; i++) out[i] = read(i * bytesPerSample);
   else {
     const stride = spp * bytesPerSample;

@@ -75,19 +75,9 @@ export function frameToLine(stack: ImageStack, options: FrameOptions = {}): Line
   const saturated = new Uint8Array(w * h);
   let saturatedCount = 0;
   const top = stack.integerCodes ? saturationCode(pages, roi, stack) : undefined;
-  for (const page of pages) {
-    for (let r = 0; r < h; r++) {
-      const from = (roi.y + r) * stack.width + roi.x;
-      for (let c = 0; c < w; c++) {
-        const v = page[from + c] as number;
-        values[r * w + c] += v / pages.length;
-        if (v === top && saturated[r * w + c] === 0) {
-          saturated[r * w + c] = 1;
-          saturatedCount++;
-        }
-      }
-    }
-  }
+  const topValue = top ?? NaN;
+  const weight = 1 / pages.length;
+  for (const page of pages) saturatedCount += accumulateRoi(page, stack.width, roi, weight, topValue, values, saturated);
   if (pages.length > 1) notes.push(`mean of ${pages.length} pages`);
   if (options.dark) {
     const dark = meanRoi(options.dark, roi, stack, source, "dark frame");
@@ -127,6 +117,25 @@ export function frameToLine(stack: ImageStack, options: FrameOptions = {}): Line
   }
   const optionsUsed: Record<string, unknown> = { format: stack.format, roi, page: options.page ?? "mean", tilt, dark: options.dark !== undefined, flat: options.flat !== undefined, maskSaturated: options.maskSaturated !== false };
   return { pixel: line.pixel, y: line.y, sigma: line.sigma, mask: line.mask, tilt, notes, warnings, options: optionsUsed };
+}
+
+/** Adds weight × the ROI of one page to `values` and flags pixels at the top code; returns how many were newly flagged. */
+function accumulateRoi(page: ArrayLike<number>, stride: number, roi: RegionOfInterest, weight: number, top: number, values: Float32Array, flags: Uint8Array): number {
+  let flagged = 0;
+  const w = roi.width;
+  for (let r = 0; r < roi.height; r++) {
+    const from = (roi.y + r) * stride + roi.x;
+    const to = r * w;
+    for (let c = 0; c < w; c++) {
+      const v = page[from + c]!;
+      values[to + c] += v * weight;
+      if (v === top && flags[to + c] === 0) {
+        flags[to + c] = 1;
+        flagged++;
+      }
+    }
+  }
+  return flagged;
 }
 
 /** The detector top code reached in the ROI (a plateau of ≥ 2 pixels at 255, 4095, 65535, ...). */
@@ -271,8 +280,11 @@ function averageRows(values: Float32Array, flags: Uint8Array, roi: RegionOfInter
   for (let r = 0; r < h; r++) {
     const shift = (r - yc) * sin;
     const row = r * w;
+    // x(k) = xc + (k − xc − shift)/cos θ, a straight line in k.
+    const x0 = xc - (xc + shift) / cos;
+    const dx = 1 / cos;
     for (let k = 0; k < w; k++) {
-      const x = xc + (k - xc - shift) / cos;
+      const x = x0 + k * dx;
       const c0 = Math.floor(x);
       if (c0 < 0 || c0 > w - 1 || (c0 === w - 1 && x > c0)) {
         previous[k] = NaN;
