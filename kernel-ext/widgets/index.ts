@@ -1,0 +1,10 @@
+// fringekit's widgets for notebook cells (kernel side): re-exports only.
+export { explorer, Explorer } from "./explorer.js";
+export type { ExplorerOptions, ExplorerState } from "./explorer.js";
+export { comparison, ComparisonWidget } from "./comparison.js";
+export type { LabelledResult } from "./comparison.js";
+export { uncertainty, UncertaintyWidget } from "./uncertainty.js";
+export type { UncertaintyOptions } from "./uncertainty.js";
+export { coherenceScan, CoherenceScanWidget } from "./coherenceScan.js";
+export type { CoherenceScanOptions } from "./coherenceScan.js";
+export { fitSummary } from "./fitSummary.js";
