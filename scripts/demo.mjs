@@ -3,7 +3,7 @@
 // notebooks headlessly with the fringekit kernel, and writes everything to out/.
 // Plain JavaScript on purpose: it must run before `npm ci` has installed TypeScript tools.
 import { spawnSync } from "node:child_process";
-import { existsSync, mkdirSync, readdirSync, readFileSync, statSync } from "node:fs";
+import { existsSync, mkdirSync, readdirSync, readFileSync, rmSync, statSync } from "node:fs";
 import { dirname, join, relative } from "node:path";
 import { fileURLToPath, pathToFileURL } from "node:url";
 
@@ -11,7 +11,10 @@ const root = join(dirname(fileURLToPath(import.meta.url)), "..");
 const out = join(root, "out");
 const jupyterData = join(root, ".jupyter-local");
 const python = "/usr/bin/python3";
-const debianPackages = ["python3-nbclient", "python3-nbformat", "python3-jupyter-client", "jupyter-client"];
+const chromium = "/usr/bin/chromium";
+// Debian packages: nbclient runs the notebooks, nbconvert writes the HTML copies, Chromium renders the figures.
+const debianPackages = ["python3-nbclient", "python3-nbformat", "python3-jupyter-client", "python3-nbconvert", "chromium"];
+const outputFolders = ["notebooks", "html", "figures", "results"];
 const steps = 6;
 let step = 0;
 const started = Date.now();
@@ -19,9 +22,12 @@ const started = Date.now();
 function say(text) {
   process.stdout.write(`${text}\n`);
 }
+function seconds() {
+  return `${((Date.now() - started) / 1000).toFixed(0)} s`;
+}
 function stage(text) {
   step += 1;
-  say(`[${step}/${steps}] ${text} (${((Date.now() - started) / 1000).toFixed(0)} s)`);
+  say(`[${step}/${steps}] ${text} (${seconds()})`);
 }
 function fail(text) {
   process.stderr.write(`demo: ${text}\n`);
@@ -32,6 +38,16 @@ function run(command, args, options = {}) {
   if (result.error) fail(`could not run ${command}: ${result.error.message}`);
   return result.status ?? 1;
 }
+/** Newest modification time (ms) of the files under `folder` (0 when it does not exist). */
+function newestIn(folder) {
+  if (!existsSync(folder)) return 0;
+  let newest = 0;
+  for (const entry of readdirSync(folder, { withFileTypes: true })) {
+    const path = join(folder, entry.name);
+    newest = Math.max(newest, entry.isDirectory() ? newestIn(path) : statSync(path).mtimeMs);
+  }
+  return newest;
+}
 
 const major = Number(process.versions.node.split(".")[0]);
 if (major < 20) fail(`Node ${process.versions.node} is too old; fringekit needs Node 20 or newer`);
@@ -39,57 +55,75 @@ if (major < 20) fail(`Node ${process.versions.node} is too old; fringekit needs 
 stage("npm packages");
 const installedLock = join(root, "node_modules", ".package-lock.json");
 if (!existsSync(installedLock) || statSync(installedLock).mtimeMs < statSync(join(root, "package-lock.json")).mtimeMs) {
+  say("  node_modules is missing or older than package-lock.json: npm ci");
   if (run("npm", ["ci", "--no-audit", "--no-fund"]) !== 0) fail("npm ci failed (see above)");
 } else {
   say("  node_modules is up to date");
 }
 
-stage("Jupyter (nbclient, nbformat, jupyter_client from Debian)");
-const probe = () => spawnSync(python, ["-c", "import nbclient, nbformat, jupyter_client"], { stdio: "ignore" }).status === 0;
-if (!probe()) {
+stage("Jupyter (nbclient, nbformat, jupyter_client, nbconvert) and Chromium");
+const probeJupyter = () => spawnSync(python, ["-c", "import nbclient, nbformat, jupyter_client, nbconvert"], { stdio: "ignore" }).status === 0;
+const ready = () => existsSync(python) && probeJupyter() && existsSync(chromium);
+if (!ready()) {
   const canInstall = process.getuid?.() === 0 && existsSync("/usr/bin/apt-get");
   if (!canInstall) {
-    fail(`the Jupyter Python packages are missing; install them with\n  sudo apt-get install -y ${debianPackages.join(" ")}\n(or the pip packages nbclient nbformat jupyter_client for ${python}) and run npm run demo again`);
+    fail(`missing: ${[!existsSync(python) || !probeJupyter() ? `Python packages for ${python}` : "", !existsSync(chromium) ? chromium : ""].filter(Boolean).join(" and ")}.\n` +
+      `Install them with\n  sudo apt-get install -y ${debianPackages.join(" ")}\n` +
+      `(or, for ${python}, the pip packages nbclient nbformat jupyter_client nbconvert) and run npm run demo again`);
   }
   say(`  installing ${debianPackages.join(" ")}`);
-  run("apt-get", ["update", "-qq"]);
-  if (run("apt-get", ["install", "-y", "-qq", ...debianPackages], { env: { ...process.env, DEBIAN_FRONTEND: "noninteractive" } }) !== 0 || !probe()) {
-    fail("installing the Jupyter packages failed (see above)");
+  const env = { ...process.env, DEBIAN_FRONTEND: "noninteractive" };
+  run("apt-get", ["update", "-qq"], { env });
+  if (run("apt-get", ["install", "-y", "-qq", "--no-install-recommends", ...debianPackages], { env }) !== 0 || !ready()) {
+    fail("installing the Jupyter packages or Chromium failed (see above)");
   }
 } else {
   say("  found");
 }
 
 stage("build");
-if (run("npm", ["run", "--silent", "build"]) !== 0) fail("the build failed (see above)");
+const built = join(root, "dist", "kernel-ext", "launch.js");
+const sourcesChanged = Math.max(...["src", "kernel-ext", "cli"].map((folder) => newestIn(join(root, folder))));
+if (!existsSync(built) || statSync(join(root, "dist", "src", "index.js")).mtimeMs < sourcesChanged) {
+  if (run("npm", ["run", "--silent", "build"]) !== 0) fail("the build failed (see above)");
+  say("  dist/ built");
+} else {
+  say("  dist/ is up to date");
+}
 
 stage("kernelspec into .jupyter-local/ (not your global Jupyter folder)");
 const { installKernelspec } = await import(pathToFileURL(join(root, "dist", "kernel-ext", "install.js")).href);
-const spec = await installKernelspec({ prefix: jupyterData });
-say(`  ${relative(root, typeof spec === "string" ? spec : spec?.path ?? jupyterData)}`);
-const jupyterEnv = { ...process.env, JUPYTER_PATH: join(jupyterData, "share", "jupyter"), FRINGEKIT_OUT: out };
+const installed = await installKernelspec({ prefix: jupyterData });
+say(`  ${relative(root, installed.directory)}/kernel.json`);
+const jupyterEnv = { ...process.env, JUPYTER_PATH: join(jupyterData, "share", "jupyter") };
 
 stage("executing the demo notebooks with the fringekit kernel");
+// Everything under out/ is regenerated, so nothing stale from an earlier run is left behind.
+for (const folder of outputFolders) rmSync(join(out, folder), { recursive: true, force: true });
 mkdirSync(join(out, "notebooks"), { recursive: true });
 const notebooks = readdirSync(join(root, "notebooks-demo"))
   .filter((name) => name.endsWith(".ipynb"))
   .sort()
   .map((name) => join("notebooks-demo", name));
 if (notebooks.length === 0) fail("no notebooks in notebooks-demo/");
+say("  (each kernel type-checks its imports in the first cell: allow half a minute per notebook)");
 const executed = run(python, [join("scripts", "run-notebooks.py"), join(out, "notebooks"), ...notebooks], { env: jupyterEnv });
 
-stage("offline HTML export with live widgets");
+stage("offline HTML copies");
+mkdirSync(join(out, "html"), { recursive: true });
 const exporter = join(root, "dist", "kernel-ext", "widgets", "exportHtml.js");
 if (existsSync(exporter)) {
   const { exportNotebookHtml } = await import(pathToFileURL(exporter).href);
-  mkdirSync(join(out, "html"), { recursive: true });
   for (const notebook of notebooks) {
     const name = notebook.split("/").pop().replace(/\.ipynb$/, "");
     await exportNotebookHtml(join(out, "notebooks", `${name}.ipynb`), join(out, "html", `${name}.html`));
-    say(`  out/html/${name}.html`);
+    say(`  out/html/${name}.html (live widgets)`);
   }
 } else {
-  say("  skipped: the widget exporter is not built");
+  say("  the widget HTML exporter is not built: writing static HTML with nbconvert (no live widgets or plots)");
+  const executedNotebooks = readdirSync(join(out, "notebooks")).filter((name) => name.endsWith(".ipynb")).map((name) => join(out, "notebooks", name));
+  const status = run(python, ["-m", "nbconvert", "--to", "html", "--log-level", "WARN", "--output-dir", join(out, "html"), ...executedNotebooks], { env: jupyterEnv });
+  if (status !== 0) say("  nbconvert failed (see above); the executed notebooks are still in out/notebooks/");
 }
 
 say("");
@@ -100,11 +134,12 @@ if (existsSync(summaryDir)) {
     say(readFileSync(join(summaryDir, name), "utf8").trimEnd());
   }
 }
-for (const folder of ["notebooks", "html", "figures", "results"]) {
+say("");
+for (const folder of outputFolders) {
   const path = join(out, folder);
   if (existsSync(path)) say(`  out/${folder}/: ${readdirSync(path).length} files`);
 }
-say(`Done in ${((Date.now() - started) / 1000).toFixed(0)} s.`);
+say(`Done in ${seconds()}.`);
 if (executed !== 0) {
   process.stderr.write("demo: a notebook failed; the executed copy in out/notebooks/ shows where\n");
   process.exit(1);

@@ -2,9 +2,11 @@
 
 Usage: python3 run-notebooks.py OUT_DIR NOTEBOOK.ipynb [...]
 Each executed notebook is written to OUT_DIR under the same name (written to a temporary
-file first, then renamed). Progress goes to stdout, one line per cell. Exit status 1 when a
-notebook fails; the partly executed notebook is still written so the failure can be read.
+file first, then renamed). Two notebooks run at a time (FRINGEKIT_DEMO_JOBS sets how many).
+Progress goes to stdout, one line per cell. Exit status 1 when a notebook fails; the partly
+executed notebook is still written so the failure can be read.
 """
+import multiprocessing
 import os
 import sys
 import time
@@ -20,6 +22,7 @@ def run(path: str, out_dir: str) -> bool:
     code_cells = [c for c in notebook.cells if c.cell_type == "code"]
     started = time.monotonic()
     done = {"count": 0}
+    print(f"  {name}: starting the fringekit kernel ({len(code_cells)} code cells)", flush=True)
 
     def on_cell_executed(cell, cell_index, execute_reply):  # nbclient hook
         done["count"] += 1
@@ -41,8 +44,11 @@ def run(path: str, out_dir: str) -> bool:
         client.execute()
     except CellExecutionError as error:
         ok = False
-        first_line = str(error).strip().splitlines()[-1] if str(error).strip() else "cell failed"
-        print(f"  {name}: FAILED: {first_line}", flush=True)
+        reason = f"{error.ename}: {error.evalue}" if getattr(error, "ename", None) else str(error).strip().splitlines()[-1]
+        print(f"  {name}: FAILED in cell {done['count']}/{len(code_cells)}: {reason}", flush=True)
+    except Exception as error:  # kernel died, timeout, missing kernelspec: say which notebook
+        ok = False
+        print(f"  {name}: FAILED: {type(error).__name__}: {error}", flush=True)
     target = os.path.join(out_dir, name)
     temporary = target + ".partial"
     nbformat.write(notebook, temporary)
@@ -56,8 +62,16 @@ def main(argv: list[str]) -> int:
         return 2
     out_dir = argv[1]
     os.makedirs(out_dir, exist_ok=True)
-    failures = [p for p in argv[2:] if not run(p, out_dir)]
-    return 1 if failures else 0
+    paths = argv[2:]
+    # Kernels spend much of their time waiting (start-up, Chromium for figures): run two at once
+    # on a 2-core machine; FRINGEKIT_DEMO_JOBS=1 runs them one after the other.
+    jobs = max(1, min(len(paths), int(os.environ.get("FRINGEKIT_DEMO_JOBS", "2"))))
+    if jobs == 1:
+        results = [run(p, out_dir) for p in paths]
+    else:
+        with multiprocessing.get_context("spawn").Pool(jobs) as pool:
+            results = pool.starmap(run, [(p, out_dir) for p in paths])
+    return 0 if all(results) else 1
 
 
 if __name__ == "__main__":
