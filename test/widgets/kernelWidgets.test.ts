@@ -2,7 +2,7 @@
 // leave in a notebook, validated against the published @jupyter-widgets/schema v2.
 import { readFileSync } from "node:fs";
 import { createRequire } from "node:module";
-import Ajv from "ajv";
+import { Ajv } from "ajv";
 import { describe, expect, it } from "vitest";
 import { demoWidgets } from "./demoWidgets.js";
 
