@@ -10,6 +10,9 @@ import { installRuntime } from "./runtime.js";
 import { registerWidgetControl } from "./widget/registry.js";
 import type { SendingSocket } from "./server/wire.js";
 
+/** Messages iopub may queue per subscriber before dropping (bursts of output stay whole). */
+const IOPUB_HIGH_WATER_MARK = 100_000;
+
 const realStderr = process.stderr.write.bind(process.stderr);
 const log = (line: string) => void realStderr(`[fringekit kernel] ${line}\n`);
 
@@ -44,6 +47,13 @@ export function launch(configPath: string): void {
   const createExecutor = tslab.executor.createExecutor;
   tslab.executor.createExecutor = (rootDir: string, convs: unknown, _console: ExecutorConsole) =>
     createExecutor(rootDir, convs, kernel.executorConsole);
+  // A PUB socket silently drops messages beyond its high-water mark (zeromq's default: 1000
+  // queued per subscriber), so a burst of outputs or widget updates would lose messages.
+  const bindSocket = tslab.jupyter.ZmqServer.prototype.bindSocket as (this: TslabServer, socket: unknown, port: number) => Promise<void>;
+  tslab.jupyter.ZmqServer.prototype.bindSocket = function (this: TslabServer, socket: { sendHighWaterMark?: number }, port: number) {
+    if (socket === this.iopub) socket.sendHighWaterMark = IOPUB_HIGH_WATER_MARK;
+    return bindSocket.call(this, socket, port);
+  };
   tslab.jupyter.ZmqServer.prototype.handleShellMessage = function (this: TslabServer, socket: SendingSocket, ...frames: Buffer[]) {
     return kernel.handleFrames(this, socket, frames);
   };

@@ -101,7 +101,7 @@ function checkShape(t: TslabInternals): void {
   need(typeof t.main.startKernel === "function", "main.startKernel is missing");
   const server = t.jupyter.ZmqServer?.prototype;
   need(!!server, "jupyter.ZmqServer is missing");
-  for (const method of ["init", "handleShellMessage", "close"]) {
+  for (const method of ["init", "bindSocket", "handleShellMessage", "close"]) {
     need(typeof server[method] === "function", `ZmqServer.prototype.${method} is missing`);
   }
   const handler = t.jupyter.JupyterHandlerImpl?.prototype;

@@ -119,10 +119,9 @@ export class FringekitKernel {
     return this.server !== undefined;
   }
 
-  /** Aborts the running cell's interrupt signal and tslab's pending await. */
+  /** Aborts the running cell's interrupt signal (each cell gets a fresh one when it starts). */
   interrupt(): void {
     this.interruptController.abort(new Error("interrupted by the user"));
-    this.interruptController = new AbortController();
   }
 
   /** Entry point replacing ZmqServer.prototype.handleShellMessage(sock, ...frames). */
@@ -253,7 +252,7 @@ export class FringekitKernel {
     const count = this.executionCount;
     this.lastExecuteParent = message.header;
     if (!silent) this.publish("execute_input", { code, execution_count: count });
-    if (this.interruptController.signal.aborted) this.interruptController = new AbortController();
+    this.interruptController = new AbortController();
 
     const capture: Capture = { errors: [] };
     this.capture = capture;

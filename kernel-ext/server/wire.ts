@@ -116,19 +116,51 @@ export interface SendingSocket {
 }
 
 /**
- * Sends frames on one socket strictly one after another: a zeromq socket accepts only one
- * send in flight, and bursts (thousands of outputs) must not be lost or reordered.
+ * Sends frames on one socket in order. A zeromq socket allows one pending send at a time
+ * (EBUSY otherwise) but completes most sends synchronously, so a frame is sent at once when
+ * nothing is queued — output printed by a cell that never yields (a busy loop) still leaves —
+ * and otherwise waits its turn; bursts are neither lost nor reordered.
  */
 export class SerialSender {
-  private tail: Promise<void> = Promise.resolve();
+  private readonly queue: Buffer[][] = [];
+  private last: Promise<unknown> = Promise.resolve();
+
   constructor(
     private readonly socket: SendingSocket,
     private readonly onError: (error: unknown) => void,
   ) {}
 
-  /** Queues `frames`; resolves when sent (errors go to onError, never reject). */
-  send(frames: Buffer[]): Promise<void> {
-    this.tail = this.tail.then(() => this.socket.send(frames)).catch(this.onError);
-    return this.tail;
+  /** Sends `frames` now if possible, else after the frames queued before them. Never throws. */
+  send(frames: Buffer[]): void {
+    if (this.queue.length === 0) {
+      try {
+        this.last = this.socket.send(frames).catch(this.onError);
+        return;
+      } catch (error) {
+        if (!isBusy(error)) {
+          this.onError(error);
+          return;
+        }
+      }
+    }
+    this.queue.push(frames);
+    if (this.queue.length === 1) void this.drain();
   }
+
+  private async drain(): Promise<void> {
+    while (this.queue.length > 0) {
+      await this.last;
+      try {
+        this.last = this.socket.send(this.queue[0]).catch(this.onError);
+      } catch (error) {
+        if (isBusy(error)) continue;
+        this.onError(error);
+      }
+      this.queue.shift();
+    }
+  }
+}
+
+function isBusy(error: unknown): boolean {
+  return (error as { code?: string })?.code === "EBUSY";
 }

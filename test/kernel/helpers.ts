@@ -126,3 +126,37 @@ export function parseChecks(run: PythonRun): Check[] {
 export function describeRun(run: PythonRun): string {
   return `exit ${run.code}\n--- stdout ---\n${run.stdout.slice(-4000)}\n--- stderr ---\n${run.stderr.slice(-4000)}`;
 }
+
+/**
+ * Registers a vitest suite that runs one Python client against a freshly installed kernelspec
+ * and requires each of `required` checks and every other reported check to pass.
+ */
+export async function checksSuite(
+  vitest: typeof import("vitest"),
+  options: { title: string; script: string; required: string[]; minimumChecks: number; args?: () => string[]; cwd?: () => string },
+): Promise<void> {
+  const { describe, beforeAll, afterAll, it, expect } = vitest;
+  const missing = missingPrerequisite();
+  if (missing) console.warn(`${options.title}: skipped: ${missing}`);
+  describe.skipIf(missing !== undefined)(options.title, () => {
+    let kernel: KernelPrefix;
+    let checks: Check[] = [];
+    let log = "";
+    beforeAll(async () => {
+      kernel = installTempKernel();
+      const run = await runPython(options.script, kernel, { args: options.args?.(), cwd: options.cwd?.() });
+      checks = parseChecks(run);
+      log = describeRun(run);
+    });
+    afterAll(() => kernel?.dispose());
+    it.each(options.required)("%s", (name) => {
+      const check = checks.find((c) => c.name === name);
+      expect(check, log).toBeDefined();
+      expect(check!.ok, `${check!.detail}\n${log}`).toBe(true);
+    });
+    it(`every check of py/${options.script} passes`, () => {
+      expect(checks.length, log).toBeGreaterThanOrEqual(options.minimumChecks);
+      expect(checks.filter((c) => !c.ok), log).toEqual([]);
+    });
+  });
+}
