@@ -18,10 +18,16 @@ export function makeFitResult(overrides: Partial<FitResult> = {}): FitResult {
     param("visibility", "1", 0.85012, 0.00123, { lower: 0, upper: 1 }),
     param("phase", "rad", 0.3012, 0.0118),
   ];
-  const freeNames = parameters.filter((p) => !p.fixed).map((p) => p.name);
+  const free = parameters.filter((p) => !p.fixed);
+  const freeNames = free.map((p) => p.name);
   const k = freeNames.length;
-  const identity = new Float64Array(k * k);
-  for (let i = 0; i < k; i++) identity[i * k + i] = 1;
+  // Uncorrelated: diagonal covariance of the standard errors, identity correlation.
+  const covariance = new Float64Array(k * k);
+  const correlation = new Float64Array(k * k);
+  free.forEach((p, i) => {
+    covariance[i * k + i] = p.stderr ** 2;
+    correlation[i * k + i] = 1;
+  });
   const n = 64;
   return {
     modelId: "two-slit",
@@ -34,8 +40,8 @@ export function makeFitResult(overrides: Partial<FitResult> = {}): FitResult {
     jacobianEvaluations: 10,
     parameters,
     freeNames,
-    covariance: identity.map((v, i) => v * parameters.filter((p) => !p.fixed)[i % (k + 1) === 0 ? i / (k + 1) : 0].stderr ** 2),
-    correlation: identity,
+    covariance,
+    correlation,
     covarianceScaled: false,
     statistics: {
       n, nFree: k, dof: n - k, chi2: 58.3, reducedChi2: 58.3 / (n - k),

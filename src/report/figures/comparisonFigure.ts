@@ -5,11 +5,11 @@
 import { InvalidArgumentError } from "../../errors.js";
 import type { Profile } from "../../profile.js";
 import type { LabelledFit } from "../comparisonTable.js";
-import { intensityAxis, lengthAxis } from "./axes.js";
 import { plainArray, plotlyText, STATIC_CONFIG, withMimeBundle, type FigureSpec } from "./figureSpec.js";
 import { symmetricLimit } from "./fitFigure.js";
 import { axisStyle, baseLayout, resolveSize, type FigureSize } from "./journal.js";
-import { EXCLUDED, GUIDE, INK, seriesStyle } from "./palette.js";
+import { GUIDE, seriesStyle } from "./palette.js";
+import { profileTraces } from "./profileTraces.js";
 
 /**
  * Comparison figure of up to four fits (more would not stay readable in print).
@@ -27,25 +27,10 @@ export function comparisonFigure(profile: Profile, fits: readonly LabelledFit[],
     }
   }
   const size = resolveSize(options, 80, "double");
-  const axis = lengthAxis(profile.x, "Position", "x");
-  const yAxis = intensityAxis(profile.y, profile.yUnit);
-  const used: number[] = [];
-  const excluded: number[] = [];
-  for (let i = 0; i < profile.x.length; i++) (profile.mask && profile.mask[i] === 0 ? excluded : used).push(i);
-  const pick = (values: ArrayLike<number>, idx: number[], scale = 1) => plainArray(idx.map((i) => values[i]), scale);
-  const markerPx = profile.x.length > 500 ? 2 : 3.5;
-  const data: Record<string, unknown>[] = [
-    {
-      type: "scatter", mode: "markers", name: "data", x: pick(profile.x, used, axis.scale), y: pick(profile.y, used, yAxis.scale),
-      marker: { color: INK, size: markerPx, line: { width: 0 } }, xaxis: "x", yaxis: "y",
-    },
-  ];
-  if (excluded.length) {
-    data.push({
-      type: "scatter", mode: "markers", name: "excluded", x: pick(profile.x, excluded, axis.scale), y: pick(profile.y, excluded, yAxis.scale),
-      marker: { color: EXCLUDED, size: markerPx + 1.5, symbol: "x-thin-open", line: { width: 0.8, color: EXCLUDED } }, xaxis: "x", yaxis: "y",
-    });
-  }
+  const points = profileTraces(profile);
+  const axis = points.xAxis;
+  const yAxis = points.yAxis;
+  const data: Record<string, unknown>[] = [...points.traces];
   let limit = 3;
   fits.forEach((f, i) => {
     const style = seriesStyle(i);

@@ -5,10 +5,10 @@
 import { InvalidArgumentError } from "../../errors.js";
 import type { FitResult } from "../../fit/types.js";
 import type { Profile } from "../../profile.js";
-import { intensityAxis, lengthAxis } from "./axes.js";
 import { plainArray, plotlyText, STATIC_CONFIG, withMimeBundle, type FigureSpec } from "./figureSpec.js";
 import { axisStyle, baseLayout, resolveSize, type FigureSize } from "./journal.js";
-import { EXCLUDED, GUIDE, INK, seriesStyle } from "./palette.js";
+import { GUIDE, INK, seriesStyle } from "./palette.js";
+import { profileTraces } from "./profileTraces.js";
 
 export interface FitFigureOptions extends FigureSize {
   /** Legend name of the model curve (user text, escaped); default "<model id> fit". */
@@ -27,33 +27,12 @@ export interface FitFigureOptions extends FigureSize {
 export function fitFigure(profile: Profile, result: FitResult, options: FitFigureOptions = {}): FigureSpec {
   checkLengths(profile, result);
   const size = resolveSize(options, 70);
-  const axis = lengthAxis(profile.x, "Position", "x");
-  const yAxis = intensityAxis(profile.y, profile.yUnit);
-  const used: number[] = [];
-  const excluded: number[] = [];
-  for (let i = 0; i < profile.x.length; i++) (profile.mask && profile.mask[i] === 0 ? excluded : used).push(i);
-  const pick = (values: ArrayLike<number>, idx: number[], scale = 1) => plainArray(idx.map((i) => values[i]), scale);
-  const markerPx = profile.x.length > 500 ? 2 : 3.5;
+  const points = profileTraces(profile, options.dataLabel ?? "data");
+  const axis = points.xAxis;
+  const yAxis = points.yAxis;
+  const markerPx = points.markerPx;
   const style = seriesStyle(0);
-
-  const data: Record<string, unknown>[] = [];
-  data.push({
-    type: "scatter", mode: "markers", name: plotlyText(options.dataLabel ?? "data"),
-    x: pick(profile.x, used, axis.scale), y: pick(profile.y, used, yAxis.scale),
-    marker: { color: INK, size: markerPx, line: { width: 0 } },
-    ...(profile.sigma && used.length <= 200
-      ? { error_y: { type: "data", array: pick(profile.sigma, used, yAxis.scale), color: INK, thickness: 0.6, width: 0 } }
-      : {}),
-    xaxis: "x", yaxis: "y",
-  });
-  if (excluded.length) {
-    data.push({
-      type: "scatter", mode: "markers", name: "excluded",
-      x: pick(profile.x, excluded, axis.scale), y: pick(profile.y, excluded, yAxis.scale),
-      marker: { color: EXCLUDED, size: markerPx + 1.5, symbol: "x-thin-open", line: { width: 0.8, color: EXCLUDED } },
-      xaxis: "x", yaxis: "y",
-    });
-  }
+  const data: Record<string, unknown>[] = [...points.traces];
   data.push({
     type: "scatter", mode: "lines", name: plotlyText(options.modelLabel ?? `${result.modelId} fit`),
     x: plainArray(profile.x, axis.scale), y: plainArray(result.model, yAxis.scale),

@@ -4,6 +4,7 @@ export * from "./journal.js";
 export * from "./figureSpec.js";
 export * from "./axes.js";
 export * from "./confidenceBand.js";
+export * from "./profileTraces.js";
 export * from "./fitFigure.js";
 export * from "./comparisonFigure.js";
 export * from "./coherenceScanFigure.js";
