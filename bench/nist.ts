@@ -4,6 +4,7 @@
 // (NIST/ITL Statistical Reference Datasets, nonlinear regression; LRE as defined in McCullough,
 // "Assessing the reliability of statistical software", The American Statistician 52 (1998) 358).
 // `npm run nist` prints the table; the last line is the summary others rely on.
+import { spawnSync } from "node:child_process";
 import { readdirSync, readFileSync } from "node:fs";
 import { basename, dirname, join } from "node:path";
 import { fileURLToPath, pathToFileURL } from "node:url";
@@ -166,6 +167,11 @@ export function main(): void {
   const sdOk = outcomes.filter((o) => Math.min(...o.sdDigits) >= 4).length;
   const rssOk = outcomes.filter((o) => o.rssDigits >= 6).length;
   process.stdout.write(`certified standard deviations to >= 4 digits: ${sdOk}/${outcomes.length}; RSS to >= 6 digits: ${rssOk}/${outcomes.length} (${((performance.now() - started) / 1000).toFixed(1)} s)\n`);
+  // The same files through SciPy's MINPACK LM, for comparison (skipped when SciPy is absent).
+  const script = join(dirname(fileURLToPath(import.meta.url)), "reference", "nist_scipy.py");
+  const scipy = spawnSync("/usr/bin/python3", [script, NIST_DIR], { encoding: "utf8" });
+  const scipyLine = scipy.status === 0 ? scipy.stdout.trim().split("\n").pop() : "SciPy NIST StRD: not run (/usr/bin/python3 with python3-scipy not available)";
+  process.stdout.write(`${scipyLine}\n`);
   process.stdout.write(`${nistSummary(outcomes)}\n`);
 }
 
