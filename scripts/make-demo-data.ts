@@ -1,5 +1,5 @@
 /**
- * Writes the simulated demo data of notebooks-demo/data/ (run: `npx tsx scripts/make-demo-data.ts`).
+ * Writes the simulated demo data of notebooks-demo/data/ (run: `npx tsx scripts/make-demo-data.ts [FOLDER]`).
  *
  * Invented scenario: a lab qualifies a new fibre-coupled superluminescent diode ("source B",
  * about 680 nm) for a two-beam interferometer. Everything here is simulated with fringekit's
@@ -27,7 +27,8 @@ import {
   type Random,
 } from "../src/index.js";
 
-const dataDir = join(dirname(fileURLToPath(import.meta.url)), "..", "notebooks-demo", "data");
+/** Output folder: notebooks-demo/data/, or the folder given as the first argument (tests use a temporary one). */
+const dataDir = process.argv[2] ?? join(dirname(fileURLToPath(import.meta.url)), "..", "notebooks-demo", "data");
 /** 12-bit camera: largest code. */
 const TOP_CODE = 4095;
 
@@ -235,4 +236,4 @@ const truths = {
 writeAtomic("truths.json", `${JSON.stringify(truths, null, 2)}\n`);
 // getModel is imported so a renamed model id fails here, not in the notebooks.
 for (const id of [lineA.model, nearField.model, "coherence-disc", "two-slit"]) getModel(id);
-process.stdout.write(`demo data written to notebooks-demo/data/ (slit Fresnel number of the near-field line: ${fresnelNumber.toFixed(2)})\n`);
+process.stdout.write(`demo data written to ${dataDir} (slit Fresnel number of the near-field line: ${fresnelNumber.toFixed(2)})\n`);
