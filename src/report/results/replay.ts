@@ -77,10 +77,11 @@ export function replayResults(
     differences.push(...compareResults(record.label, record.result, now, { relative, fraction, stderrRelative }));
   }
   const reproduced = differences.length === 0;
+  const num = (x: number) => (x < 1e-3 ? x.toExponential(0) : String(x));
   const what = `${doc.fits.length} fit${doc.fits.length === 1 ? "" : "s"} (${doc.fits.map((f) => f.label).join(", ")})`;
   const dataWords = dataCheck === "sha256" ? `data ${doc.input.source ?? ""} matched by SHA-256` : "data embedded in the results file";
   const summary = reproduced
-    ? `Reproduced: ${what} on ${dataWords}; every fitted value within ${fraction} standard errors, fixed ones within ${relative} relative, standard errors within ${stderrRelative * 100} %, statistics within ${relative} relative.`
+    ? `Reproduced: ${what} on ${dataWords}; every fitted value within ${num(fraction)} standard errors, fixed ones within ${num(relative)} relative, standard errors within ${num(stderrRelative * 100)} %, statistics within ${num(relative)} relative.`
     : `NOT reproduced: ${differences.length} difference${differences.length === 1 ? "" : "s"} in ${what} on ${dataWords}: ` +
       differences.slice(0, 5).map((d) => `${d.fit} ${d.quantity} ${d.recorded} → ${d.replayed} (allowed ${d.allowed})`).join("; ") +
       (differences.length > 5 ? `; and ${differences.length - 5} more` : "") + ".";
