@@ -19,7 +19,12 @@ export interface FitTableOptions {
   format?: FormatOptions;
   /** Extra notes printed under the table (user text, escaped). */
   notes?: string[];
+  /** Show effects switched off (pixelWidth, blur, backgroundSlope, bandwidth fixed at 0) as rows; default false: one note names them. */
+  showInactive?: boolean;
 }
+
+/** Optional effects that a value of exactly 0 switches off. */
+const OPTIONAL_EFFECTS = new Set(["pixelWidth", "blur", "backgroundSlope", "bandwidth"]);
 
 const STAT_LABELS: Record<string, ParameterLabel> = {
   n: { text: "points used n", html: "points used <i>n</i>", latex: "points used $n$" },
@@ -44,7 +49,9 @@ export function fitTable(result: FitResult, options: FitTableOptions = {}): Repo
   if (!result || !Array.isArray(result.parameters) || !result.statistics) {
     throw new InvalidArgumentError("result", typeof result, "a FitResult with parameters and statistics");
   }
-  const rows: ReportTableRow[] = result.parameters.map((p) => ({
+  const inactive = options.showInactive ? [] : result.parameters.filter((p) => p.fixed && p.value === 0 && OPTIONAL_EFFECTS.has(p.name));
+  const shown = result.parameters.filter((p) => !inactive.includes(p));
+  const rows: ReportTableRow[] = shown.map((p) => ({
     cells: [{ label: parameterLabel(p.name) }, { quantity: formatParameter(p, { ...options.format, ...options.formats?.[p.name] }) }],
   }));
   const s = result.statistics;
@@ -62,6 +69,7 @@ export function fitTable(result: FitResult, options: FitTableOptions = {}): Repo
     "Uncertainties are standard uncertainties rounded to two significant digits (JCGM 100:2008, 7.2.6)" +
       (result.covarianceScaled ? ", scaled by the reduced χ²." : ", not scaled by the reduced χ²."),
   ];
+  if (inactive.length) notes.push(`Not included (fixed at 0): ${inactive.map((p) => parameterLabel(p.name).text).join(", ")}.`);
   if (options.source !== undefined) notes.push(`Data: ${options.source}`);
   for (const w of result.warnings) notes.push(`Warning (${w.code}${w.parameter ? `, ${w.parameter}` : ""}): ${w.message}`);
   if (result.flagged.length) notes.push(`${result.flagged.length} points flagged as outliers by the robust fit.`);

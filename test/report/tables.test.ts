@@ -150,3 +150,19 @@ describe("quantityReport(quantities, options)", () => {
     expect(compileLatex(r.toLatexDocument()).log).toMatch(/Output written/);
   });
 });
+
+describe("fitTable(result, {showInactive})", () => {
+  const base = makeFitResult();
+  const withOff = {
+    ...base,
+    parameters: [...base.parameters, { name: "blur", unit: "m", value: 0, stderr: 0, fixed: true, tied: null, atBound: null, lower: 0, upper: Infinity }],
+  };
+  it("leaves effects fixed at 0 out of the rows and names them in a note", () => {
+    const text = fitReport(withOff).toString();
+    expect(text).not.toMatch(/^blur/m);
+    expect(text).toContain("Not included (fixed at 0): blur σ_b.");
+  });
+  it("shows them as rows with showInactive: true", () => {
+    expect(fitReport(withOff, { showInactive: true }).toString()).toMatch(/^blur σ_b +0 m \(fixed\)/m);
+  });
+});
