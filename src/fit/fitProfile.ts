@@ -188,6 +188,7 @@ export function summarize(prep: PreparedFit, outcome: SolverOutcome, extraWarnin
   const cov = covarianceFromJacobian(jac, n, q, Number.isFinite(scale) ? scale : 1, freeNames);
   warnings.push(...cov.warnings);
   if (!info.converged) warnings.push({ code: "not-converged", message: `the fit did not converge: ${info.message}` });
+  if (outcome.nonFiniteTrials > 0) warnings.push({ code: "non-finite-model", message: `the model or objective was non-finite at ${outcome.nonFiniteTrials} trial point(s); those steps were rejected (consider bounds that keep the model finite)` });
   if (outcome.nonFiniteJacobian) warnings.push({ code: "non-finite-model", message: "the model or its derivatives were non-finite at some points; those derivatives were taken as 0" });
   if (noise.id === "gaussian" && noise.sigmaSource === "unknown" && prep.sigmaAbsolute) {
     warnings.push({ code: "sigma-unknown", message: "sigmaAbsolute is set but the profile has no σ and no counts: σ = 1 was used" });

@@ -82,6 +82,8 @@ export interface SolverOutcome {
   jacobianEvaluations: number;
   /** True when some Jacobian entries were non-finite and replaced by 0. */
   nonFiniteJacobian: boolean;
+  /** Trial points where the residuals were non-finite (those steps were rejected). */
+  nonFiniteTrials: number;
 }
 
 const EPS = 2.220446049250313e-16;
@@ -104,6 +106,7 @@ export function leastSquares(problem: LeastSquaresProblem, start: Float64Array, 
   second.evaluations += first.evaluations;
   second.jacobianEvaluations += first.jacobianEvaluations;
   second.iterations += first.iterations;
+  second.nonFiniteTrials += first.nonFiniteTrials;
   return second.reason === "cancelled" || second.cost <= first.cost || !Number.isFinite(first.cost) ? second : { ...first, evaluations: second.evaluations, jacobianEvaluations: second.jacobianEvaluations, iterations: second.iterations };
 }
 
@@ -131,7 +134,7 @@ function levenbergMarquardt(problem: LeastSquaresProblem, start: Float64Array, o
   }
 
   let evaluations = 0, jacobianEvaluations = 0, iterations = 0;
-  let nonFiniteJacobian = false;
+  let nonFiniteJacobian = false, nonFiniteTrials = 0;
   const evaluate = (params: Float64Array, out: Float64Array): number => {
     evaluations++;
     problem.residuals(params, out);
@@ -211,7 +214,7 @@ function levenbergMarquardt(problem: LeastSquaresProblem, start: Float64Array, o
 
   const finish = (reason: StopReason, cost: number): SolverOutcome =>
     ({ x: Float64Array.from(x), residuals: Float64Array.from(r), jacobian: Float64Array.from(jac), cost, reason,
-      iterations, evaluations, jacobianEvaluations, nonFiniteJacobian });
+      iterations, evaluations, jacobianEvaluations, nonFiniteJacobian, nonFiniteTrials });
 
   let cost = evaluate(x, r);
   if (!Number.isFinite(cost)) return finish("invalid-start", cost);
@@ -304,6 +307,7 @@ function levenbergMarquardt(problem: LeastSquaresProblem, start: Float64Array, o
       rStep[a] = rs;
       predicted -= 2 * qtr[a] * rs + rs * rs;
     }
+    if (!Number.isFinite(costTrial)) nonFiniteTrials++;
     const actual = cost - costTrial;
     const rho = Number.isFinite(costTrial) && predicted > 0 ? actual / predicted : -1;
     options.onProgress?.({ iteration: iterations, evaluations, cost: Math.min(cost, Number.isFinite(costTrial) ? costTrial : cost), damping: lambda });
