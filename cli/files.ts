@@ -59,6 +59,21 @@ export function writeOutputFile(path: string, content: string | Uint8Array, inpu
   }
 }
 
+/**
+ * Checks an output path before any work: its folder exists and it is not an input file.
+ * @param path   output path
+ * @param inputs input paths that must not be overwritten
+ */
+export function checkOutputPath(path: string, inputs: readonly string[] = []): void {
+  const target = resolve(path);
+  for (const input of inputs) {
+    if (sameFile(target, input)) throw new DataError(path, "the output file is one of the input files", "choose another output name; input files are never changed");
+  }
+  let folder: ReturnType<typeof statSync> | undefined;
+  try { folder = statSync(dirname(target)); } catch { folder = undefined; }
+  if (!folder?.isDirectory()) throw new DataError(path, "the output folder does not exist", "create the folder first or choose another path");
+}
+
 function sameFile(target: string, input: string): boolean {
   const real = (p: string): string => { try { return realpathSync(p); } catch { return resolve(p); } };
   return real(target) === real(input);

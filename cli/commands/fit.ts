@@ -1,9 +1,9 @@
 /** `fringekit fit FILE [--model ID] [--set ...] [--fix ...] [--noise ...] [--json] [--out FILE]`. */
-import { checkCountsForPoisson, fitDocument, fitProfile, fitTable, getModel, stringifyResults, tableToText, type FitResult, type LoadedProfile } from "../../src/index.js";
+import { checkCountsForPoisson, fitDocument, fitFigure, fitProfile, fitTable, getModel, stringifyResults, tableToText, type FitResult, type LoadedProfile } from "../../src/index.js";
 import type { CommandFitOptions } from "../engine.js";
 import { fitJson } from "../fitJson.js";
 import { fitSettings } from "../fitSettings.js";
-import { writeOutputFile } from "../files.js";
+import { checkOutputPath, writeOutputFile } from "../files.js";
 import { DATA_OPTIONS, loadData } from "../loadData.js";
 import { parseArgs, type ParsedArgs } from "../parseArgs.js";
 import type { CommandOutput } from "../output.js";
@@ -34,19 +34,27 @@ export function fitFile(path: string, modelId: string, args: ParsedArgs): { load
 }
 
 /** Runs the fit command. */
-export function fitCommand(words: readonly string[]): CommandOutput {
+export async function fitCommand(words: readonly string[]): Promise<CommandOutput> {
   const args = parseArgs(words, { ...FIT_OPTIONS, model: { kind: "value" }, figure: { kind: "value" } }, "fit");
   if (args.positionals.length !== 1) throw new UsageError(`fit needs exactly one data file (got ${args.positionals.length})`);
-  if (args.values.has("figure")) throw new UsageError("--figure is not available in this build (figure export is not wired yet)");
   const path = args.positionals[0]!;
+  const figure = args.values.get("figure");
+  if (figure !== undefined && !/\.(svg|pdf|png)$/i.test(figure)) throw new UsageError(`invalid --figure: "${figure}" (a file name ending in .svg, .pdf or .png)`);
+  if (figure !== undefined) checkOutputPath(figure, [path]);
+  const out = args.values.get("out");
+  if (out !== undefined) checkOutputPath(out, [path]);
   const { loaded, result, warnings, settings } = fitFile(path, args.values.get("model") ?? DEFAULT_MODEL, args);
   const json = fitJson(result, loaded.profile.provenance, warnings);
   const text = args.flags.has("json") ? `${JSON.stringify(json, null, 2)}\n` : `${tableToText(fitTable(result, { source: loaded.profile.provenance?.source ?? path, notes: warnings }))}\n`;
-  const out = args.values.get("out");
   // A .json output is the versioned results file that `fringekit replay` re-runs; other names get the printed text.
   if (out !== undefined) writeOutputFile(out, out.endsWith(".json") ? stringifyResults(fitDocument(loaded.profile, { result, fitOptions: { ...settings } })) : text, [path]);
+  if (figure !== undefined) {
+    // Loaded only when asked for: figure export starts a headless Chromium.
+    const { exportFigure } = await import("../../kernel-ext/figures/exportFigure.js");
+    await exportFigure(fitFigure(loaded.profile, result), figure);
+  }
   return {
-    stdout: out !== undefined && !args.flags.has("json") ? `${text}` : text,
+    stdout: text,
     exitCode: result.converged ? 0 : 1,
     ...(result.converged ? {} : { error: `${path}: the fit did not converge (${result.message}); the result was still written` }),
   };

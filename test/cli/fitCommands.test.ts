@@ -84,6 +84,32 @@ describe("fringekit fit FILE", () => {
   });
 });
 
+describe("fringekit fit FILE --figure / fringekit kernel install", () => {
+  it("fringekit fit line.csv --figure fit.svg writes an SVG figure (headless Chromium, closed after)", async () => {
+    const figure = join(work, "fit.svg");
+    const { code } = await runInProcess(["fit", line, "--figure", figure]);
+    expect(code).toBe(0);
+    const svg = readFileSync(figure, "utf8");
+    expect(svg).toMatch(/^<svg|<svg /);
+    expect(svg).toContain("two-slit");
+  });
+
+  it("fringekit fit --figure with a bad extension is refused before fitting", async () => {
+    const { code, stderr } = await runInProcess(["fit", line, "--figure", join(work, "fit.gif")]);
+    expect(code).toBe(2);
+    expect(stderr).toMatch(/invalid --figure: ".*fit\.gif" \(a file name ending in \.svg, \.pdf or \.png\)/);
+  });
+
+  it("fringekit kernel install --prefix DIR writes the fringekit kernelspec", () => {
+    const prefix = join(work, "prefix");
+    const { code, stdout } = runCli(["kernel", "install", "--prefix", prefix]);
+    expect(code).toBe(0);
+    expect(stdout).toMatch(/installed the Jupyter kernel "fringekit" in .*share\/jupyter\/kernels\/fringekit/);
+    const spec = JSON.parse(readFileSync(join(prefix, "share/jupyter/kernels/fringekit/kernel.json"), "utf8"));
+    expect(spec.display_name).toContain("fringekit");
+  });
+});
+
 describe("fringekit compare FILE --models", () => {
   it("fringekit compare line.csv --models two-slit,single-slit --json ranks two-slit first", async () => {
     const { code, stdout } = await runInProcess(["compare", line, "--models", "two-slit,single-slit", "--json"]);
