@@ -15,6 +15,7 @@ import { optionsFromResult } from "./refit.js";
 import { STOP_REASONS } from "./status.js";
 import type { FitOptions, FitResult } from "./types.js";
 
+/** Options of {@link bootstrap}. */
 export interface BootstrapOptions {
   method?: "parametric" | "residual";
   /** Number of synthetic profiles (default 200). */
@@ -31,6 +32,7 @@ export interface BootstrapOptions {
   signal?: { readonly aborted: boolean };
 }
 
+/** Draws, standard errors (SI) and percentile intervals from {@link bootstrap}. */
 export interface BootstrapSummary {
   /** Draws of each free parameter and derived quantity (converged refits only). */
   draws: Record<string, Float64Array>;

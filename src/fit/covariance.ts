@@ -8,6 +8,7 @@
 import { householderQr, svdJacobi } from "./linalg.js";
 import type { FitWarning } from "./types.js";
 
+/** Covariance (SI²), correlation and standard errors (SI) of the free parameters. */
 export interface CovarianceResult {
   covariance: Float64Array;
   correlation: Float64Array;

@@ -25,6 +25,7 @@ export interface JointDataset {
   noise?: NoiseModelId | "auto";
 }
 
+/** Result of {@link fitJoint}: joint status, covariance and per-dataset results. */
 export interface JointFitResult {
   converged: boolean;
   reason: StopReason;

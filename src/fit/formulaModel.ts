@@ -5,6 +5,7 @@ import { InvalidArgumentError } from "../errors.js";
 import type { Model, ParameterSpec } from "../physics/model.js";
 import { compileFormula, freeSymbols, type CompiledFormula } from "./formula.js";
 
+/** Options of {@link formulaModel}. */
 export interface FormulaModelOptions {
   /** Parameters, as names or full specs; default: every free name of the formula except the variable, in order of appearance. */
   parameters?: readonly (string | ParameterSpec)[];

@@ -44,6 +44,7 @@ export interface SolverProgress {
   damping: number;
 }
 
+/** Options of {@link leastSquares}: bounds, limits, tolerances (relative), progress and cancellation. */
 export interface SolverOptions {
   /** Lower/upper bounds (same units as θ); ±Infinity where unbounded. */
   lower?: Float64Array;
@@ -67,6 +68,7 @@ export interface SolverOptions {
   signal?: { readonly aborted: boolean };
 }
 
+/** What {@link leastSquares} returns: the optimum, its residuals and Jacobian, and why it stopped. */
 export interface SolverOutcome {
   /** Best parameters found (the last accepted point). */
   x: Float64Array;

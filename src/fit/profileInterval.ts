@@ -12,6 +12,7 @@ import { bestOf, prepareFit } from "./fitProfile.js";
 import { objectiveScale, optionsFromResult } from "./refit.js";
 import type { FitOptions, FitResult, FitWarning } from "./types.js";
 
+/** A profile-likelihood interval (ends in the parameter's SI unit). */
 export interface ProfileInterval {
   parameter: string;
   unit: string;

@@ -9,6 +9,7 @@ import { normalQuantile } from "../stats/normal.js";
 import { svdJacobi } from "./linalg.js";
 import type { FitResult } from "./types.js";
 
+/** Options of {@link propagate}. */
 export interface PropagateOptions {
   /** "delta" (default) or "monte-carlo". */
   method?: "delta" | "monte-carlo";
@@ -20,6 +21,7 @@ export interface PropagateOptions {
   level?: number;
 }
 
+/** A derived quantity with its standard uncertainty and interval (in the quantity's own unit). */
 export interface Propagated {
   /** g at the fitted parameters. */
   value: number;
