@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { DIVERGING, EXCLUDED, INK, SERIES, SERIES_DASH, SERIES_MARKER } from "../../src/report/figures/palette.js";
+import { DATA_DENSE, DIVERGING, EXCLUDED, INK, SERIES, SERIES_DASH, SERIES_MARKER } from "../../src/report/figures/palette.js";
 
 /** CIE 1976 L* of an sRGB colour (sRGB transfer curve from IEC 61966-2-1; D65 luminance weights). */
 function lightness(hex: string): number {
@@ -28,7 +28,11 @@ describe("palette", () => {
     expect(Math.abs(lo - hi)).toBeLessThan(3);
     expect(mid).toBeGreaterThan(90);
   });
-  it("EXCLUDED points are much lighter than data (L* difference > 40)", () => {
+  it("EXCLUDED points are much lighter than data (L* difference > 40, > 15 for dense data)", () => {
     expect(lightness(EXCLUDED) - lightness(INK)).toBeGreaterThan(40);
+    expect(lightness(EXCLUDED) - lightness(DATA_DENSE)).toBeGreaterThan(15);
+  });
+  it("dense data stay lighter than the first model curve drawn over them (L* difference > 20)", () => {
+    expect(lightness(DATA_DENSE) - lightness(SERIES[0])).toBeGreaterThan(20);
   });
 });

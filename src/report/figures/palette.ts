@@ -3,14 +3,17 @@
  * apart in greyscale print, and the hues (navy, vermilion, teal, ochre) avoid the red–green
  * pairs that colour-blind readers confuse; each series also gets its own dash pattern and
  * marker, so no information rests on colour alone.
- * CIE L* (from sRGB, IEC 61966-2-1): ink 18, navy 26, vermilion 48, teal 60, ochre 72; test/report checks
+ * CIE L* (from sRGB, IEC 61966-2-1): ink 18, navy 26, vermilion 48, dense-data grey 51, teal 60, ochre 72,
+ * excluded grey 75; test/report checks
  * the steps stay at least 10 apart.
  */
 
 /** Data points and text. */
 export const INK = "#2b2b2b";
-/** Points excluded from the fit (mask = 0). */
-export const EXCLUDED = "#a8a8a8";
+/** Data points of dense profiles (> 200 points): grey, so the model curve drawn over them stays visible. */
+export const DATA_DENSE = "#7a7a7a";
+/** Points excluded from the fit (mask = 0): lighter still, and drawn as crosses. */
+export const EXCLUDED = "#b8b8b8";
 /** Model curves in order of use, dark to light. */
 export const SERIES = ["#143d73", "#c0502e", "#3e9e97", "#d9a93b"] as const;
 /** Dash pattern per series (plotly names), for greyscale and colour-blind readers. */

@@ -6,7 +6,7 @@
 import type { Profile } from "../../profile.js";
 import { intensityAxis, lengthAxis } from "./axes.js";
 import { plainArray, plotlyText } from "./figureSpec.js";
-import { EXCLUDED, INK } from "./palette.js";
+import { DATA_DENSE, EXCLUDED, INK } from "./palette.js";
 
 export interface ProfileTraces {
   traces: Record<string, unknown>[];
@@ -31,7 +31,7 @@ export function profileTraces(profile: Profile, dataLabel = "data"): ProfileTrac
     {
       type: "scatter", mode: "markers", name: plotlyText(dataLabel),
       x: pick(profile.x, used, xAxis.scale), y: pick(profile.y, used, yAxis.scale),
-      marker: { color: INK, size: markerPx, line: { width: 0 } },
+      marker: { color: used.length > 200 ? DATA_DENSE : INK, size: markerPx, line: { width: 0 } },
       ...(profile.sigma && used.length <= 200
         ? { error_y: { type: "data", array: pick(profile.sigma, used, yAxis.scale), color: INK, thickness: 0.6, width: 0 } }
         : {}),
