@@ -3,9 +3,9 @@
  * apart in greyscale print, and the hues (navy, vermilion, teal, ochre) avoid the red–green
  * pairs that colour-blind readers confuse; each series also gets its own dash pattern and
  * marker, so no information rests on colour alone.
- * CIE L* (from sRGB, IEC 61966-2-1): ink 18, navy 26, vermilion 48, dense-data grey 51, teal 60, ochre 72,
- * excluded grey 75; test/report checks
- * the steps stay at least 10 apart.
+ * CIE L* (from sRGB, IEC 61966-2-1): ink 18, navy 26, vermilion 48, dense-data grey 51,
+ * teal 60, ochre 72, excluded grey 75; test/report/palette.test.ts checks the model steps
+ * stay at least 10 apart.
  */
 
 /** Data points and text. */
