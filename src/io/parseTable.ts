@@ -76,7 +76,7 @@ export function parseTable(text: string, options: TableOptions = {}): LoadedProf
   let headers: ColumnHeader[];
   let dataRows = split.rows;
   if (firstIsHeader) {
-    headers = first.cells.map(parseColumnHeader);
+    headers = mergeUnitCells(first.cells, split.delimiter).map(parseColumnHeader);
     dataRows = split.rows.slice(1);
   } else {
     headers = headerFromComment(split.leadingComments, split.delimiter, first.cells.length) ?? first.cells.map(() => ({ name: "", unit: "", raw: "" }));
@@ -193,6 +193,17 @@ function positionScale(header: ColumnHeader, rawX: Float64Array, options: TableO
     throw new DataError(source, `the unit "${unitText}" of column "${label}" is not a length`, "use m, mm, um, nm or px for positions", undefined);
   }
   return factor;
+}
+
+/** In space-separated headers, "position [mm]" splits into two cells: join a bracketed unit to its name. */
+function mergeUnitCells(cells: string[], delimiter: Delimiter): string[] {
+  if (delimiter !== "whitespace") return cells;
+  const out: string[] = [];
+  for (const cell of cells) {
+    if (/^[[(]/.test(cell) && out.length > 0) out[out.length - 1] += ` ${cell}`;
+    else out.push(cell);
+  }
+  return out;
 }
 
 function consecutiveIntegers(values: Float64Array): boolean {

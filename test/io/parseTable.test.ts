@@ -35,6 +35,12 @@ describe("parseTable(text, options)", () => {
     expect(() => parseTable("0.1 5\n0.2 6\n0.3 7\n", { source: "w.txt" })).toThrow(/w\.txt: the position column "column 1" has no unit; write it in the header/);
   });
 
+  it("parseTable(space-separated header with bracketed units) keeps each unit with its column", () => {
+    const { profile } = parseTable("position [mm]   intensity (counts)\n0.1 5\n0.2 6\n0.3 7\n", { source: "s.txt" });
+    expect(profile.x[1]).toBeCloseTo(2e-4, 15);
+    expect(profile.yUnit).toBe("counts");
+  });
+
   it("parseTable uses a header given as the last comment line", () => {
     const { profile } = parseTable("# position [mm], counts\n0.1, 5\n0.2, 6\n0.3, 7\n", { source: "c.csv" });
     expect(profile.x[0]).toBeCloseTo(1e-4, 15);
