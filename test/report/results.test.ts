@@ -195,3 +195,16 @@ describe("replayResults(doc, profile, engine)", () => {
     expect(() => replayResults(doc, null, engine((r) => r))).toThrow(/does not embed its data; give the data file it was made from \(--data scan <1>\.csv\)/);
   });
 });
+
+describe("parseResults with hostile keys", () => {
+  it("drops __proto__ keys instead of changing an object's prototype", () => {
+    const { profile, result } = fileProfile();
+    const text = stringifyResults(fitDocument(profile, { result, fitOptions: { noise: "poisson" } }));
+    const hostile = text.replace('"noise": "poisson"', '"noise": "poisson", "__proto__": { "polluted": true }');
+    expect(hostile.indexOf("__proto__")).toBeLessThan(hostile.indexOf('"result"')); // inside fitOptions
+    const doc = parseResults(hostile);
+    expect((doc.fits[0].fitOptions as { polluted?: boolean }).polluted).toBeUndefined();
+    expect(Object.getPrototypeOf(doc.fits[0].fitOptions)).toBe(Object.prototype);
+    expect(({} as { polluted?: boolean }).polluted).toBeUndefined();
+  });
+});

@@ -72,7 +72,7 @@ export function encodeJson(value: unknown): unknown {
   if (typeof value === "object") {
     const out: Record<string, unknown> = {};
     for (const [k, v] of Object.entries(value as Record<string, unknown>)) {
-      if (typeof v === "function" || v === undefined) continue;
+      if (typeof v === "function" || v === undefined || k === "__proto__") continue;
       out[k] = encodeJson(v);
     }
     return out;
@@ -89,7 +89,8 @@ export function decodeJson(value: unknown): unknown {
     if (o.dtype === "float64" && "base64" in o) return decodeFloat64(o, "array");
     if (o.dtype === "uint8" && "base64" in o) return decodeUint8(o, "array");
     const out: Record<string, unknown> = {};
-    for (const [k, v] of Object.entries(o)) out[k] = decodeJson(v);
+    // A "__proto__" key in a file would set the object's prototype on assignment: drop it.
+    for (const [k, v] of Object.entries(o)) if (k !== "__proto__") out[k] = decodeJson(v);
     return out;
   }
   return value;
