@@ -223,6 +223,22 @@ export class ExplorerView extends FigureView {
       this.rows.get(name)?.update(state);
     }
     this.schedulePreview(performance.now());
+    this.fitResidualAxis();
+  }
+
+  /**
+   * Settled parameters (a fit arrived, a slider was released): rescale the residual axis when
+   * the residuals left it or shrank well inside it, e.g. from ±80 before a fit to ±4 after.
+   */
+  private fitResidualAxis(): void {
+    if (!this.computePreview() || this.plotEl.childElementCount === 0) return;
+    const wanted = this.residualRange();
+    const current = (this.plotEl as unknown as { _fullLayout?: { yaxis2?: { range?: [number, number] } } })._fullLayout?.yaxis2?.range;
+    if (!current) return;
+    const span = (r: [number, number]) => r[1] - r[0];
+    if (wanted[0] < current[0] || wanted[1] > current[1] || span(wanted) < 0.3 * span(current)) {
+      void Plotly.relayout(this.plotEl, { "yaxis2.range": wanted });
+    }
   }
 
   private rebuildData(): void {
