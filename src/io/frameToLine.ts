@@ -6,7 +6,10 @@
 import { DataError, InvalidArgumentError } from "../errors.js";
 import { TOP_CODES, flaggedRanges } from "./findSaturation.js";
 import type { ImageStack } from "./imageTypes.js";
+import { averageRows } from "./averageRows.js";
 import { measureTilt } from "./measureTilt.js";
+import { refineTilt } from "./refineTilt.js";
+import { repairHotPixels } from "./repairHotPixels.js";
 
 /** Rectangle in pixels (0-based column and row of the top-left corner, size). */
 export interface RegionOfInterest {
@@ -53,9 +56,6 @@ export interface LineProfile {
   /** Options used, for provenance. */
   options: Record<string, unknown>;
 }
-
-/** Hot pixel: more than this many robust noise σ above the largest of its four neighbours. */
-export const HOT_PIXEL_THRESHOLD = 12;
 
 /**
  * Turns a frame into a line profile. σ of each averaged sample comes from the mean square
@@ -153,55 +153,6 @@ function saturationCode(pages: ImageStack["pages"], roi: RegionOfInterest, stack
   }
   return count >= 2 && (TOP_CODES as readonly number[]).concat(stack.topCode ?? []).includes(max) ? max : undefined;
 }
-
-/**
- * Refines a tilt estimate: the upper and lower halves of the rows, each de-tilted with the
- * estimate, are cross-correlated; their residual shift δ over the distance Δy between the
- * halves' centres gives the correction atan(δ / Δy). Two passes.
- */
-function refineTilt(values: Float32Array, flags: Uint8Array, roi: RegionOfInterest, start: number): number {
-  if (roi.height < 8 || roi.width < 16) return start;
-  const half = Math.floor(roi.height / 2);
-  const top = { ...roi, height: half };
-  const bottom = { ...roi, height: half };
-  const upper = values.subarray(0, half * roi.width), lower = values.subarray((roi.height - half) * roi.width);
-  const upperFlags = flags.subarray(0, half * roi.width), lowerFlags = flags.subarray((roi.height - half) * roi.width);
-  const dy = roi.height - half;
-  let tilt = start;
-  for (let pass = 0; pass < 2; pass++) {
-    // Each half is sampled about its own centre; shift the lower one by the tilt across Δy.
-    const a = averageRows(upper, upperFlags, top, tilt, true, -dy / 2);
-    const b = averageRows(lower, lowerFlags, bottom, tilt, true, dy / 2);
-    const delta = subPixelShift(a.y, a.mask, b.y, b.mask, 4);
-    if (delta === undefined) return tilt;
-    tilt -= Math.atan(delta / dy);
-  }
-  return tilt;
-}
-
-/** Shift s (pixels) maximising Σ a(k) b(k + s) of the mean-removed profiles, to a parabola's vertex. */
-function subPixelShift(a: Float64Array, am: Uint8Array, b: Float64Array, bm: Uint8Array, range: number): number | undefined {
-  const n = a.length;
-  const mean = (y: Float64Array, m: Uint8Array): number => { let s = 0, c = 0; for (let i = 0; i < n; i++) if (m[i]) { s += y[i]!; c++; } return c > 0 ? s / c : 0; };
-  const ma = mean(a, am), mb = mean(b, bm);
-  const score: number[] = [];
-  for (let s = -range; s <= range; s++) {
-    let sum = 0, count = 0;
-    for (let k = Math.max(0, -s); k < Math.min(n, n - s); k++) {
-      if (!am[k] || !bm[k + s]) continue;
-      sum += (a[k]! - ma) * (b[k + s]! - mb);
-      count++;
-    }
-    score.push(count > 0 ? sum / count : -Infinity);
-  }
-  let best = 1;
-  for (let i = 1; i < score.length - 1; i++) if (score[i]! > score[best]!) best = i;
-  const [l, c, r] = [score[best - 1]!, score[best]!, score[best + 1]!];
-  const denominator = l - 2 * c + r;
-  if (!Number.isFinite(denominator) || denominator >= 0) return undefined;
-  return best - range + (0.5 * (l - r)) / denominator;
-}
-
 function checkRoi(roi: RegionOfInterest, stack: ImageStack): RegionOfInterest {
   const ok = [roi.x, roi.y, roi.width, roi.height].every((v) => Number.isInteger(v)) && roi.x >= 0 && roi.y >= 0 && roi.width >= 3 && roi.height >= 1 && roi.x + roi.width <= stack.width && roi.y + roi.height <= stack.height;
   if (!ok) throw new InvalidArgumentError("roi", `${roi.x},${roi.y},${roi.width},${roi.height}`, `x,y,width,height in whole pixels inside the ${stack.width} × ${stack.height} frame, width ≥ 3`);
@@ -226,113 +177,4 @@ function meanRoi(other: ImageStack, roi: RegionOfInterest, stack: ImageStack, so
     }
   }
   return out;
-}
-
-/** Replaces isolated hot pixels; returns how many. The noise scale is the median absolute
- * difference between vertical neighbours, i.e. along the fringes, where the pattern hardly
- * changes (×1.4826/√2 turns it into a Gaussian σ); at least half a code step. */
-function repairHotPixels(values: Float32Array, w: number, h: number, flags: Uint8Array): number {
-  if (w < 3 || h < 3) return 0;
-  const sample: number[] = [];
-  const step = Math.max(1, Math.floor((w * (h - 1)) / 20000));
-  for (let i = 0; i + w < values.length; i += step) sample.push(Math.abs((values[i + w] as number) - (values[i] as number)));
-  sample.sort((a, b) => a - b);
-  const noise = Math.max((sample[Math.floor(sample.length / 2)] ?? 0) * 1.4826 / Math.SQRT2, 0.5);
-  const threshold = HOT_PIXEL_THRESHOLD * noise;
-  let count = 0;
-  for (let r = 1; r < h - 1; r++) {
-    for (let c = 1; c < w - 1; c++) {
-      const i = r * w + c;
-      if (flags[i] !== 0) continue;
-      const a = values[i - 1] as number, b = values[i + 1] as number, u = values[i - w] as number, d = values[i + w] as number;
-      if ((values[i] as number) - Math.max(a, b, u, d) > threshold) {
-        values[i] = (a + b + u + d) / 4;
-        count++;
-      }
-    }
-  }
-  return count;
-}
-
-interface Averaged {
-  pixel: Float64Array;
-  y: Float64Array;
-  sigma: Float64Array;
-  mask: Uint8Array;
-  saturatedFlag: Uint8Array;
-  masked: number;
-}
-
-/** Samples every row along the fringe normal u = (x − xc) cos θ + (y − yc) sin θ (linear
- * interpolation along the row) and averages over rows. */
-function averageRows(values: Float32Array, flags: Uint8Array, roi: RegionOfInterest, tilt: number, maskSaturated: boolean, yOffset = 0, varianceFloor = 0): Averaged {
-  const { width: w, height: h } = roi;
-  const xc = (w - 1) / 2;
-  const yc = (h - 1) / 2 - yOffset;
-  const cos = Math.cos(tilt);
-  const sin = Math.sin(tilt);
-  const sum = new Float64Array(w);
-  const count = new Float64Array(w);
-  const diff2 = new Float64Array(w);
-  const diffCount = new Float64Array(w);
-  const previous = new Float64Array(w).fill(NaN);
-  const saturatedFlag = new Uint8Array(w);
-  for (let r = 0; r < h; r++) {
-    const shift = (r - yc) * sin;
-    const row = r * w;
-    // x(k) = xc + (k − xc − shift)/cos θ, a straight line in k.
-    const x0 = xc - (xc + shift) / cos;
-    const dx = 1 / cos;
-    for (let k = 0; k < w; k++) {
-      const x = x0 + k * dx;
-      const c0 = Math.floor(x);
-      if (c0 < 0 || c0 > w - 1 || (c0 === w - 1 && x > c0)) {
-        previous[k] = NaN;
-        continue;
-      }
-      const t = x - c0;
-      const c1 = t > 0 ? c0 + 1 : c0;
-      if (flags[row + c0] !== 0 || flags[row + c1] !== 0) {
-        if (flags[row + c0] === 1 || flags[row + c1] === 1) saturatedFlag[k] = 1;
-        if (maskSaturated || flags[row + c0] === 2 || flags[row + c1] === 2) {
-          previous[k] = NaN;
-          continue;
-        }
-      }
-      const v = (values[row + c0] as number) * (1 - t) + (values[row + c1] as number) * t;
-      sum[k] = (sum[k] as number) + v;
-      count[k] = (count[k] as number) + 1;
-      const p = previous[k] as number;
-      if (!Number.isNaN(p)) {
-        diff2[k] = (diff2[k] as number) + (v - p) * (v - p);
-        diffCount[k] = (diffCount[k] as number) + 1;
-      }
-      previous[k] = v;
-    }
-  }
-  const pixel = new Float64Array(w);
-  const y = new Float64Array(w);
-  const sigma = new Float64Array(w);
-  const mask = new Uint8Array(w);
-  let masked = 0;
-  // Pooled noise for columns with too few row pairs to estimate their own.
-  let pooled = 0, pooledCount = 0;
-  for (let k = 0; k < w; k++) { pooled += diff2[k] as number; pooledCount += diffCount[k] as number; }
-  const pooledVar = pooledCount > 0 ? pooled / (2 * pooledCount) : 0;
-  for (let k = 0; k < w; k++) {
-    pixel[k] = roi.x + k;
-    const n = count[k] as number;
-    if (n === 0) {
-      y[k] = 0;
-      sigma[k] = Math.sqrt(Math.max(pooledVar, varianceFloor, 1e-300)); // placeholder; the sample is masked
-      if (saturatedFlag[k]) masked++;
-      continue;
-    }
-    y[k] = (sum[k] as number) / n;
-    const variance = (diffCount[k] as number) >= 4 ? (diff2[k] as number) / (2 * (diffCount[k] as number)) : pooledVar;
-    sigma[k] = Math.sqrt(Math.max(variance, varianceFloor, 1e-300) / n);
-    mask[k] = 1;
-    if (saturatedFlag[k] && maskSaturated) { mask[k] = 0; masked++; }
-  }
-  return { pixel, y, sigma, mask, saturatedFlag, masked };
 }
