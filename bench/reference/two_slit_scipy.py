@@ -2,7 +2,8 @@
 
 Reads a JSON job on stdin:
   {"x": [...] (m), "y": [...], "sigma": [...], "start": {name: value},
-   "fixed": {"wavelength": m, "distance": m, "pixelWidth": m}, "repeats": int}
+   "fixed": {"wavelength": m, "distance": m, "pixelWidth": m}, "repeats": int,
+   "variant": "analytic" (numpy Jacobian, x_scale="jac") | "default" (least_squares(fun, p0, method="lm"))}
 and writes JSON to stdout: parameter values, standard errors (covariance (J^T J)^-1 scaled by
 the reduced chi-square, as curve_fit does), chi2, nfev, status and the median wall time per
 fit over `repeats` runs after one warm-up.
@@ -81,8 +82,17 @@ def main():
     def jac(p):
         return -jacobian(p) / sigma[:, None]
 
-    def fit():
-        return least_squares(fun, p0, jac=jac, method="lm", x_scale="jac")
+    variant = job.get("variant", "analytic")
+    if variant == "analytic":
+        # analytic numpy Jacobian, MINPACK's own column scaling
+        def fit():
+            return least_squares(fun, p0, jac=jac, method="lm", x_scale="jac")
+    elif variant == "default":
+        # the call as usually written: finite-difference Jacobian, default scaling
+        def fit():
+            return least_squares(fun, p0, method="lm")
+    else:
+        raise SystemExit(f"unknown variant {variant!r}")
 
     fit()  # warm-up
     times = []
