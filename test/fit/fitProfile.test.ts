@@ -169,3 +169,21 @@ describe("autoStartCandidates(x, y, wavelength, distance)", () => {
   });
 });
 
+describe("fitProfile(profile, getModel(id)) with automatic starts across model families", () => {
+  for (const [id, truth] of [
+    ["n-slit", { amplitude: 2000, background: 30, center: -0.15e-3, separation: 0.3e-3, width: 0.06e-3 }],
+    ["two-beam", { amplitude: 2000, background: 30, center: 0.2e-3, separation: 0.8e-3, visibility: 0.6, phase: -1 }],
+  ] as const) {
+    it(`${id}: converges to within 4 standard errors of the simulated truth`, () => {
+      const model = getModel(id);
+      const profile = simulateProfile(model, truth, pixelPositions(2048, 5.5e-6), { noise: "poisson", seed: 17 });
+      const result = fitProfile(profile, model);
+      expect(result.converged).toBe(true);
+      for (const [name, value] of Object.entries(truth)) {
+        const p = result.parameters.find((q) => q.name === name)!;
+        expect(Math.abs(p.value - value) / p.stderr).toBeLessThan(4);
+      }
+    });
+  }
+});
+
