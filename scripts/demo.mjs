@@ -139,6 +139,8 @@ for (const folder of outputFolders) {
   const path = join(out, folder);
   if (existsSync(path)) say(`  out/${folder}/: ${readdirSync(path).length} files`);
 }
+say("  Open out/html/*.html in a browser, or out/notebooks/*.ipynb in JupyterLab with the fringekit kernel.");
+say("  Re-check a result: npx fringekit replay out/results/first-fit.json --data notebooks-demo/data/line-pair-A.csv");
 say(`Done in ${seconds()}.`);
 if (executed !== 0) {
   process.stderr.write("demo: a notebook failed; the executed copy in out/notebooks/ shows where\n");
