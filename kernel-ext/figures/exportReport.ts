@@ -6,6 +6,7 @@
  * Example: await exportFitReport(profile, result, "out/fig2", { fitOptions, formats: ["pdf", "png"] })
  *   → out/fig2.pdf, out/fig2.png, out/fig2.tex, out/fig2-table.tex, out/fig2.md, out/fig2.html, out/fig2.json
  */
+import path from "node:path";
 import { InvalidArgumentError } from "../../src/errors.js";
 import type { FitResult } from "../../src/fit/types.js";
 import type { Model } from "../../src/physics/model.js";
@@ -48,7 +49,7 @@ export interface ExportedReport {
 /** Figure, tables and results file of one fit, named `base`.{pdf,png,svg,tex,md,html,json}. */
 export async function exportFitReport(profile: Profile, result: FitResult, base: string, options: ExportReportOptions = {}): Promise<ExportedReport> {
   const fit: FitToRecord = { result, fitOptions: options.fitOptions, modelOptions: options.modelOptions };
-  return writeAll(base, fitFigure(profile, result, options.figure), fitReport(result, { caption: options.caption, source: profile.provenance?.source }), fitDocument(profile, fit, options), options);
+  return writeAll(base, fitFigure(profile, result, options.figure), fitReport(result, { caption: options.caption, source: profile.provenance?.source }), fitDocument(profile, fit, options), options, profile);
 }
 
 /** Figure, table and results file of a comparison of fits of one profile. */
@@ -60,20 +61,26 @@ export async function exportComparisonReport(profile: Profile, fits: readonly La
     comparisonReport(fits, { caption: options.caption, verdict: options.verdict }),
     comparisonDocument(profile, records, options),
     options,
+    profile,
   );
 }
 
 /** Figure, table and results file of a coherence-scan fit (scan: x = separation in m, y = visibility). */
 export async function exportScanReport(scan: Profile, result: FitResult, model: Model, base: string, options: ExportReportOptions = {}): Promise<ExportedReport> {
   const fit: FitToRecord = { result, fitOptions: options.fitOptions, modelOptions: options.modelOptions };
-  return writeAll(base, coherenceScanFigure(scan, result, model, options.figure), fitReport(result, { caption: options.caption, source: scan.provenance?.source }), scanDocument(scan, fit, options), options);
+  return writeAll(base, coherenceScanFigure(scan, result, model, options.figure), fitReport(result, { caption: options.caption, source: scan.provenance?.source }), scanDocument(scan, fit, options), options, scan);
 }
 
-async function writeAll(base: string, figure: FigureSpec, table: TableReport, doc: ResultsDocument, options: ExportReportOptions): Promise<ExportedReport> {
+async function writeAll(base: string, figure: FigureSpec, table: TableReport, doc: ResultsDocument, options: ExportReportOptions, data: Profile): Promise<ExportedReport> {
   if (typeof base !== "string" || base === "" || /\.(pdf|png|svg|json|tex|md|html)$/i.test(base)) {
     throw new InvalidArgumentError("base", base, "an output path without extension, e.g. out/figure2 (the extensions are added)");
   }
   const formats = options.formats ?? ["pdf", "png"];
+  // Never write over the data: refuse any output named like the input file.
+  const source = data.provenance?.source;
+  const names = [...formats.map((f) => `${base}.${f}`), `${base}.tex`, `${base}-table.tex`, `${base}.md`, `${base}.html`, `${base}.json`];
+  const clash = source ? names.find((n) => path.basename(n) === path.basename(source)) : undefined;
+  if (clash) throw new InvalidArgumentError("base", base, `a name whose outputs do not include the data file ${source} (${clash} would replace it)`);
   // Write the cheap, pure outputs first: a browser failure then still leaves the tables and results.
   const out: ExportedReport = {
     figures: [],

@@ -135,6 +135,8 @@ describe.skipIf(!haveChromium)("exportFitReport(profile, result, base, options)"
       expect(parseResults(readFileSync(out.results, "utf8")).fits[0].result).toEqual(result);
       expect(readFileSync(out.latexDocument, "utf8")).toMatch(/^\\documentclass\{article\}/);
       await expect(exportFitReport(profile, result, path.join(dir, "x.pdf"))).rejects.toThrow(/without extension/);
+      const fromFile = { ...profile, provenance: { source: "frame.png", sha256: "0".repeat(64), options: {}, notes: [] } };
+      await expect(exportFitReport(fromFile, result, path.join(dir, "frame"))).rejects.toThrow(/frame\.png would replace it/);
     } finally {
       rmSync(dir, { recursive: true, force: true });
     }
