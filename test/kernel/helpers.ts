@@ -91,6 +91,7 @@ export function runPython(script: string, kernel: KernelPrefix, options: { cwd?:
         PYTHONPATH: pyDir,
         PYDEVD_DISABLE_FILE_VALIDATION: "1",
         PYTHONUNBUFFERED: "1",
+        PYTHONDONTWRITEBYTECODE: "1",
       },
       stdio: ["ignore", "pipe", "pipe"],
     });
