@@ -13,13 +13,16 @@ import { writeFileAtomic } from "./atomicWrite.js";
 import { openPlotlyPage, type PlotlyPage } from "./browser.js";
 import { setPngDpi } from "./pngDensity.js";
 
+/** Export formats: SVG and PDF (vector) and PNG (raster at a chosen dpi). */
 export type FigureFormat = "svg" | "pdf" | "png";
 
+/** Options of rendering one figure. */
 export interface RenderOptions {
   /** PNG resolution in dots per inch, 72–1200 (default 300; journals ask 300–600 for line art). */
   dpi?: number;
 }
 
+/** Options of exportFigure. */
 export interface ExportOptions extends RenderOptions {
   /** Output format; default from the file name's extension (.svg, .pdf, .png). */
   format?: FigureFormat;

@@ -21,6 +21,7 @@ import { comparisonReport, fitReport, type TableReport } from "../../src/report/
 import { writeFileAtomic } from "./atomicWrite.js";
 import { exportFigure, FigureRenderer, type FigureFormat } from "./exportFigure.js";
 
+/** Options of the one-call exports (figure formats, size, and what the results file records). */
 export interface ExportReportOptions extends DocumentOptions {
   /** Figure formats to write (default ["pdf", "png"]). */
   formats?: FigureFormat[];

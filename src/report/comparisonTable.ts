@@ -14,6 +14,7 @@ export interface LabelledFit {
   result: FitResult;
 }
 
+/** Options of comparisonTable. */
 export interface ComparisonTableOptions {
   caption?: string;
   /** A verdict in plain words (e.g. from stats' compareFits), printed as a note. */

@@ -8,6 +8,7 @@ import { formatParameter, type FormatOptions } from "./formatQuantity.js";
 import { parameterLabel, type ParameterLabel } from "./labels.js";
 import type { ReportTable, ReportTableRow } from "./table.js";
 
+/** Options of fitTable: caption, data name, number formats, notes. */
 export interface FitTableOptions {
   /** Caption; default "Fit of model <id>". User text: escaped by every renderer. */
   caption?: string;

@@ -11,6 +11,7 @@ import { choosePrefix, prefixBySymbol, takesPrefix, type SiPrefix } from "./siPr
 /** Why a quantity carries no ordinary uncertainty, or a caveat on it. */
 export type QuantityNote = "fixed" | "at lower bound" | "at upper bound" | "uncertainty not estimated" | "tied";
 
+/** How to print a value ± uncertainty: digits, SI prefix, style. */
 export interface FormatOptions {
   /** Significant digits of the uncertainty (GUM 7.2.6 says at most two; default 2). */
   digits?: number;

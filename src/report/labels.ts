@@ -5,6 +5,7 @@
  */
 import { escapeHtml, escapeLatex } from "./escape.js";
 
+/** A parameter's reading label in each output format. */
 export interface ParameterLabel {
   /** Plain text, e.g. "separation d". */
   text: string;

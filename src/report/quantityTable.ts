@@ -17,6 +17,7 @@ export interface QuantityRow {
   note?: string;
 }
 
+/** Options of quantityTable: caption, number format, notes. */
 export interface QuantityTableOptions {
   caption?: string;
   format?: FormatOptions;

@@ -13,6 +13,7 @@ export type ReportTableCell = string | { quantity: FormattedQuantity } | { label
 /** A data row, or a section heading spanning the whole width. */
 export type ReportTableRow = { cells: ReportTableCell[] } | { section: string };
 
+/** A table of a report: caption, column names and alignment, rows, and notes under it. */
 export interface ReportTable {
   caption: string;
   columns: string[];

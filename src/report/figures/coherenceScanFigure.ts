@@ -12,6 +12,7 @@ import { plainArray, plotlyText, STATIC_CONFIG, withMimeBundle, type FigureSpec 
 import { axisStyle, baseLayout, baseLegend, resolveSize, type FigureSize } from "./journal.js";
 import { BAND_FILL, INK, seriesStyle } from "./palette.js";
 
+/** Options of coherenceScanFigure (size in mm, font in pt, band level). */
 export interface CoherenceScanFigureOptions extends FigureSize {
   /** Confidence level of the band (default 0.95). */
   level?: number;

@@ -9,6 +9,7 @@ import type { FitResult } from "../../fit/types.js";
 import type { Model } from "../../physics/model.js";
 import { normalQuantile } from "../../stats/normal.js";
 
+/** A curve with its pointwise lower and upper confidence limits (model units). */
 export interface Band {
   /** Curve at x (model unit). */
   center: Float64Array;

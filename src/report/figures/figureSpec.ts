@@ -7,6 +7,7 @@ import { escapeHtml } from "../escape.js";
 /** Which composition a figure is; kept in layout.meta.kind. */
 export type FigureKind = "fit" | "comparison" | "coherence-scan" | "correlation" | "profile-likelihood";
 
+/** A plotly figure {data, layout, config}; layout.width/height in CSS px, layout.meta with the physical size. */
 export interface FigureSpec {
   data: Record<string, unknown>[];
   layout: Record<string, unknown> & { width: number; height: number; meta: FigureMeta };
@@ -15,6 +16,7 @@ export interface FigureSpec {
   toMimeBundle?(): Record<string, unknown>;
 }
 
+/** What the figure is and its physical size (mm) and text size (pt); kept in layout.meta. */
 export interface FigureMeta {
   kind: FigureKind;
   widthMm: number;

@@ -10,6 +10,7 @@ import { axisStyle, baseLayout, resolveSize, type FigureSize } from "./journal.j
 import { GUIDE, INK, seriesStyle } from "./palette.js";
 import { profileTraces } from "./profileTraces.js";
 
+/** Options of fitFigure (size in mm, font in pt, legend names). */
 export interface FitFigureOptions extends FigureSize {
   /** Legend name of the model curve (user text, escaped); default "<model id> fit". */
   modelLabel?: string;

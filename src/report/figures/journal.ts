@@ -18,6 +18,7 @@ export const PX_PER_PT = 96 / 72;
 /** Fonts: Arial/Helvetica-metric sans serif, the usual journal figure face; Liberation Sans on Debian. */
 export const FONT_FAMILY = "Arial, Helvetica, 'Liberation Sans', 'Nimbus Sans', sans-serif";
 
+/** Requested figure size: width ("single", "double" or mm), height (mm), font (pt). */
 export interface FigureSize {
   /** "single", "double" or a width in mm (40–250). */
   width?: "single" | "double" | number;

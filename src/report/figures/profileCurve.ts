@@ -12,6 +12,7 @@ import type { Model } from "../../physics/model.js";
 import type { Profile } from "../../profile.js";
 import type { ProfileCurve } from "./profileLikelihoodFigure.js";
 
+/** Options of profileCurve: grid size and span (standard errors), extra fit options. */
 export interface ProfileCurveOptions {
   /** Grid points (odd, 5–101; default 15). */
   points?: number;

@@ -8,6 +8,7 @@ import { intensityAxis, lengthAxis } from "./axes.js";
 import { plainArray, plotlyText } from "./figureSpec.js";
 import { DATA_DENSE, EXCLUDED, INK } from "./palette.js";
 
+/** Point traces of a profile with the axis scalings they use. */
 export interface ProfileTraces {
   traces: Record<string, unknown>[];
   /** Position axis: scale from m and title (e.g. mm). */

@@ -6,6 +6,7 @@
 import { InvalidArgumentError } from "../../errors.js";
 import { decodeBase64, encodeBase64 } from "./base64.js";
 
+/** A typed array in JSON: dtype, shape and little-endian bytes as base64. */
 export interface EncodedArray {
   dtype: "float64" | "uint8";
   shape: number[];

@@ -21,6 +21,7 @@ export interface ReplayEngine {
 /** fringekit's own model registry and fitter: what replay uses unless told otherwise. */
 export const DEFAULT_REPLAY_ENGINE: ReplayEngine = { getModel, fitProfile };
 
+/** Tolerances of replay, and the data's SHA-256 when the profile carries none. */
 export interface ReplayOptions {
   /** Relative tolerance on fixed values and statistics (default 1e-6). */
   relative?: number;
@@ -41,6 +42,7 @@ export interface ReplayDifference {
   allowed: string;
 }
 
+/** Outcome of a replay: reproduced or not, each difference, the new results and a summary. */
 export interface ReplayReport {
   reproduced: boolean;
   differences: ReplayDifference[];

@@ -10,10 +10,12 @@ import type { Profile } from "../../profile.js";
 import { FRINGEKIT_VERSION } from "../version.js";
 import { decodeJson, encodeJson } from "./arrays.js";
 
+/** Value of the "format" field that marks a fringekit results file. */
 export const RESULTS_FORMAT = "fringekit-results";
 /** Version of the document layout; readers refuse newer versions with a clear message. */
 export const RESULTS_FORMAT_VERSION = 1;
 
+/** What a results file holds: one fit, a comparison of fits, or a coherence-scan fit. */
 export type ResultsKind = "fit" | "comparison" | "scan";
 
 /** What the fits were made to. `sha256` is null for data that never was a file (then `data` is embedded). */
@@ -42,6 +44,7 @@ export interface FitRecord {
   result: FitResult;
 }
 
+/** A results file as an object (the JSON text's content, decoded). */
 export interface ResultsDocument {
   format: typeof RESULTS_FORMAT;
   formatVersion: number;
@@ -67,6 +70,7 @@ export interface FitToRecord {
   fitOptions?: Record<string, unknown>;
 }
 
+/** What else a results document records: seeds, verdict, derived quantities, notes, embedded data. */
 export interface DocumentOptions {
   seeds?: Record<string, number>;
   verdict?: string;
