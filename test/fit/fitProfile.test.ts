@@ -1,4 +1,6 @@
-import { join } from "node:path";
+import { spawnSync } from "node:child_process";
+import { dirname, join } from "node:path";
+import { fileURLToPath } from "node:url";
 import { describe, expect, it } from "vitest";
 import { b1Profile, fitB1, runScipy, scipyAvailable } from "../../bench/B1.js";
 import { NIST_DIR, parseNistFile } from "../../bench/nist.js";
@@ -8,6 +10,7 @@ import { fitProfile } from "../../src/fit/fitProfile.js";
 import { formulaModel } from "../../src/fit/formulaModel.js";
 import { getModel, pixelPositions, simulateProfile } from "../../src/physics/index.js";
 import type { Profile } from "../../src/profile.js";
+import { createRandom } from "../../src/random.js";
 
 const hasScipy = scipyAvailable();
 if (!hasScipy) process.stdout.write("SKIPPED: SciPy cross-check needs /usr/bin/python3 with python3-scipy\n");
@@ -185,5 +188,27 @@ describe("fitProfile(profile, getModel(id)) with automatic starts across model f
       }
     });
   }
+});
+
+describe("fitProfile(counts, formulaModel, { noise: \"poisson\" }) against SciPy", () => {
+  it.skipIf(!hasScipy)("matches scipy.optimize.minimize on the Poisson deviance and the inverse-Fisher standard errors", () => {
+    // Counts from a*exp(−b·x) + c with a = 40, b = 0.3, c = 2 (seeded Poisson draws).
+    const rng = createRandom(8);
+    const x = Float64Array.from({ length: 60 }, (_, i) => i * 0.25);
+    const y = Float64Array.from(x, (v) => rng.poisson(40 * Math.exp(-0.3 * v) + 2));
+    const profile: Profile = { x, y, yUnit: "counts", counts: true };
+    const model = formulaModel("a*exp(-b*x) + c");
+    const ours = fitProfile(profile, model, { start: { a: 30, b: 0.2, c: 1 }, tolerance: 1e-14 });
+    expect(ours.noise).toBe("poisson");
+    const script = join(dirname(fileURLToPath(import.meta.url)), "..", "..", "bench", "reference", "poisson_scipy.py");
+    const run = spawnSync("/usr/bin/python3", [script], { input: JSON.stringify({ x: Array.from(x), y: Array.from(y), start: [30, 0.2, 1] }), encoding: "utf8" });
+    expect(run.status).toBe(0);
+    const reference = JSON.parse(run.stdout) as { values: number[]; stderr: number[]; deviance: number };
+    expect(ours.statistics.objective).toBeCloseTo(reference.deviance, 6);
+    ours.parameters.forEach((p, j) => {
+      expect(Math.abs(p.value - reference.values[j])).toBeLessThan(1e-4 * reference.stderr[j]);
+      expect(Math.abs(p.stderr / reference.stderr[j] - 1)).toBeLessThan(1e-4);
+    });
+  });
 });
 
