@@ -8,7 +8,7 @@ import sys
 
 from jupyter_client.manager import start_new_kernel
 
-TIMEOUT = 30
+TIMEOUT = 60
 
 
 def _terminate(signum, frame):

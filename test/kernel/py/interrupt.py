@@ -38,7 +38,7 @@ with kernel() as (km, kc):
     started = time.time()
     reply = shell_reply(kc, msg_id, timeout=20)
     checks.check("awaiting cell ends with an error reply after interrupt", reply["content"]["status"] == "error", reply["content"])
-    checks.check("interrupt takes effect within 5 s", time.time() - started < 5, time.time() - started)
+    checks.check("interrupt takes effect within 15 s", time.time() - started < 15, time.time() - started)
     time.sleep(0.2)
     reply, msgs = execute(kc, "[(globalThis as any).stoppedBySignal, (globalThis as any).steps > 10]")
     text = [m["content"]["data"]["text/plain"] for m in msgs if m["msg_type"] == "execute_result"]
