@@ -101,6 +101,11 @@ export function parseTable(text: string, options: TableOptions = {}): LoadedProf
     if (row.cells.length < width && Math.max(columns.x, columns.y, columns.sigma ?? 0) >= row.cells.length) {
       throw new DataError(source, `${row.cells.length} cell${row.cells.length === 1 ? "" : "s"} where ${width} are expected`, "complete or remove that row", row.line);
     }
+    if (row.cells.length > width) {
+      // Extra cells shift the columns: usually decimal commas in a comma-separated file.
+      const hint = split.delimiter === "," ? "decimal commas? save the file with ; as separator, or use decimal points" : "remove the extra cells or add a header for them";
+      throw new DataError(source, `${row.cells.length} cells where ${width} are expected`, hint, row.line);
+    }
     const read = (index: number): number => {
       const cell = parseNumberCell(row.cells[index] ?? "", decimalComma);
       if (!cell.ok) throw new DataError(source, `${cell.problem} in column "${label(index)}"`, "fix the value, delete the row, or comment it out with #", row.line);

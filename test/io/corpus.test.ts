@@ -18,6 +18,7 @@ const cases: [string, RegExp][] = [
   ["non-monotonic.csv", /^non-monotonic\.csv:4: positions in column "position" are not monotonic: 0\.2 on line 4 after 0\.3 on line 3; sort the rows/],
   ["wrong-unit.csv", /^wrong-unit\.csv: the unit "kg" of column "position" is not a length; use m, mm, um, nm or px/],
   ["short-row.csv", /^short-row\.csv:3: 1 cell where 3 are expected; /],
+  ["decimal-comma.csv", /^decimal-comma\.csv:2: 3 cells where 2 are expected; decimal commas\? save the file with ; as separator/],
   ["one-column.csv", /^one-column\.csv: only 1 column found; /],
   ["pixels-no-pitch.csv", /^pixels-no-pitch\.csv: the position column "pixel" holds pixel indices; give the pixel pitch/],
   ["negative-sigma.csv", /^negative-sigma\.csv:3: σ must be positive, found -1/],

@@ -88,6 +88,7 @@ def main():
     write("non-monotonic.csv", "position [mm],intensity\n0.1,10\n0.3,11\n0.2,12\n0.4,13\n")
     write("wrong-unit.csv", "position [kg],intensity\n0.1,10\n0.2,11\n0.3,12\n")
     write("short-row.csv", "position [mm],intensity,sigma\n0.1,10,1\n0.2\n0.3,12,1\n")
+    write("decimal-comma.csv", "position [mm],intensity\n0,1,10\n0,2,11\n0,3,12\n")
     write("one-column.csv", "intensity\n10\n11\n12\n")
     write("pixels-no-pitch.csv", "pixel,counts\n0,10\n1,11\n2,12\n3,13\n")
     write("negative-sigma.csv", "position [mm],intensity,sigma\n0.1,10,1\n0.2,11,-1\n0.3,12,1\n")
