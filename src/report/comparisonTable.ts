@@ -5,6 +5,7 @@
  */
 import { InvalidArgumentError } from "../errors.js";
 import type { FitResult } from "../fit/types.js";
+import type { NestedTestResult } from "../stats/nested.js";
 import { fixed } from "./fitTable.js";
 import type { ReportTable, ReportTableRow } from "./table.js";
 
@@ -17,8 +18,10 @@ export interface LabelledFit {
 /** Options of comparisonTable. */
 export interface ComparisonTableOptions {
   caption?: string;
-  /** A verdict in plain words (e.g. from stats' compareFits), printed as a note. */
+  /** A verdict in plain words (e.g. compareFits(...).verdict), printed as a note. */
   verdict?: string;
+  /** Nested-model tests (compareFits(...).tests), one note each with the statistics and p-values. */
+  tests?: readonly NestedTestResult[];
   notes?: string[];
 }
 
@@ -89,6 +92,7 @@ export function comparisonTable(fits: readonly LabelledFit[], options: Compariso
     ],
   }));
   const notes = [`${fits.length} fits of the same ${fits[0].result.statistics.n} points, ${fits[0].result.noise} noise model; best AIC first.`];
+  for (const t of options.tests ?? []) notes.push(testNote(t));
   if (options.verdict) notes.push(options.verdict);
   notes.push(...(options.notes ?? []));
   return {
@@ -98,4 +102,14 @@ export function comparisonTable(fits: readonly LabelledFit[], options: Compariso
     rows,
     notes,
   };
+}
+
+/** One line for a nested-model test: likelihood ratio (Wilks 1938) and F test, with p-values. */
+export function testNote(t: NestedTestResult): string {
+  // Below 1e-12 the tail probability is beyond the accuracy of the distributions: say so.
+  const p = (x: number) => (x < 1e-12 ? "< 1e-12" : x < 1e-4 ? `= ${x.toExponential(1)}` : `= ${x.toPrecision(2)}`);
+  const extra = `${t.extraParameters} extra parameter${t.extraParameters === 1 ? "" : "s"}`;
+  return `${t.simpler} within ${t.larger} (${extra}): likelihood ratio ${fixed(t.likelihoodRatio, 2)}, p ${p(t.likelihoodRatioPValue)}; ` +
+    `F(${t.fDof[0]}, ${t.fDof[1]}) = ${fixed(t.f, 2)}, p ${p(t.fPValue)}` +
+    (t.boundaryCorrected ? " (likelihood-ratio p halved: the simpler model sits on a bound)." : ".");
 }

@@ -2,6 +2,8 @@
 // real fitter. The SHA-256 comes from the bytes, as the command line computes it.
 import { describe, expect, it } from "vitest";
 import { fitProfile } from "../../src/fit/fitProfile.js";
+import { compareFits } from "../../src/stats/compareFits.js";
+import { comparisonReport } from "../../src/report/tableReport.js";
 import { readTable } from "../../src/io/parseTable.js";
 import { getModel } from "../../src/physics/registry.js";
 import { pixelPositions, simulateProfile } from "../../src/physics/simulate.js";
@@ -81,5 +83,21 @@ describe("profileCurve(result, profile, model, name) with fitProfile", () => {
   });
   it("refuses a fixed parameter by name", () => {
     expect(() => profileCurve(result, profile, model, "wavelength")).toThrow(/invalid parameter: "wavelength" \(a free parameter of the fit: /);
+  });
+});
+
+describe("comparisonReport(fits, {verdict, tests}) with compareFits", () => {
+  const { profile } = readTable(csvBytes(11), { source: "scan-11.csv" });
+  const model = getModel("two-slit");
+  const free = fitProfile(profile, model, { start: START, noise: "poisson" });
+  const fixedV = fitProfile(profile, model, { start: START, noise: "poisson", fix: { visibility: 0.8 } });
+  it("prints the likelihood-ratio and F tests of nested fits and the verdict as notes", () => {
+    const fits = [{ label: "V free", result: free }, { label: "V = 0.8", result: fixedV }];
+    const comparison = compareFits(fits.map((f) => ({ fit: f.result, label: f.label, profile })));
+    expect(comparison.tests.length).toBe(1);
+    const text = comparisonReport(fits, { verdict: comparison.verdict, tests: comparison.tests }).toString();
+    expect(text).toMatch(/V = 0\.8 within V free \(1 extra parameter\): likelihood ratio [\d.]+, p < 1e-12; F\(1, 505\) = [\d.]+, p < 1e-12\./);
+    expect(text).toContain(comparison.verdict);
+    expect(text.split("\n")[3]).toMatch(/^V free /); // best AIC first
   });
 });

@@ -5,7 +5,7 @@ import { join } from "node:path";
 import { describe, expect, it } from "vitest";
 import { escapeHtml, escapeLatex, escapeMarkdown } from "../../src/report/escape.js";
 import { comparisonReport, fitReport, quantityReport } from "../../src/report/tableReport.js";
-import { rankFits } from "../../src/report/comparisonTable.js";
+import { rankFits, testNote } from "../../src/report/comparisonTable.js";
 import { HOSTILE, makeFitResult } from "./fixtures.js";
 
 const PDFLATEX = "/usr/bin/pdflatex";
@@ -164,5 +164,17 @@ describe("fitTable(result, {showInactive})", () => {
   });
   it("shows them as rows with showInactive: true", () => {
     expect(fitReport(withOff, { showInactive: true }).toString()).toMatch(/^blur σ_b +0 m \(fixed\)/m);
+  });
+});
+
+describe("testNote(test)", () => {
+  it("testNote prints statistics to 2 decimals and p-values to 2 significant digits (hand-made test result)", () => {
+    const note = testNote({
+      simpler: "two-slit", larger: "two-slit-broadband", extraParameters: 1, likelihoodRatio: 16.6, likelihoodRatioPValue: 4.6e-5,
+      f: 2.4, fPValue: 0.1234, fDof: [1, 900], nesting: "model", boundaryCorrected: true,
+    });
+    expect(note).toBe(
+      "two-slit within two-slit-broadband (1 extra parameter): likelihood ratio 16.60, p = 4.6e-5; F(1, 900) = 2.40, p = 0.12 (likelihood-ratio p halved: the simpler model sits on a bound).",
+    );
   });
 });
