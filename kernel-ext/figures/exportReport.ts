@@ -11,6 +11,7 @@ import { InvalidArgumentError } from "../../src/errors.js";
 import type { FitResult } from "../../src/fit/types.js";
 import type { Model } from "../../src/physics/model.js";
 import type { Profile } from "../../src/profile.js";
+import type { NestedTestResult } from "../../src/stats/nested.js";
 import type { LabelledFit } from "../../src/report/comparisonTable.js";
 import { coherenceScanFigure } from "../../src/report/figures/coherenceScanFigure.js";
 import { comparisonFigure } from "../../src/report/figures/comparisonFigure.js";
@@ -35,6 +36,8 @@ export interface ExportReportOptions extends DocumentOptions {
   modelOptions?: Record<string, unknown>;
   /** Table caption (user text, escaped). */
   caption?: string;
+  /** Nested-model tests of a comparison (compareFits(...).tests), printed under its table. */
+  tests?: readonly NestedTestResult[];
 }
 
 /** Paths of the files written. */
@@ -59,7 +62,7 @@ export async function exportComparisonReport(profile: Profile, fits: readonly La
   return writeAll(
     base,
     comparisonFigure(profile, fits, options.figure),
-    comparisonReport(fits, { caption: options.caption, verdict: options.verdict }),
+    comparisonReport(fits, { caption: options.caption, verdict: options.verdict, tests: options.tests }),
     comparisonDocument(profile, records, options),
     options,
     profile,
