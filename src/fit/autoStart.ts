@@ -15,12 +15,13 @@ import type { Model } from "../physics/model.js";
 import { fftInPlace, nextPowerOfTwo } from "./fft.js";
 
 /** Names autoStart needs in a model. */
-const REQUIRED = ["amplitude", "center", "separation", "background"];
+const REQUIRED = ["amplitude", "center", "background"];
 
 /** True when {@link autoStartCandidates} knows the model's parameters. */
 export function supportsAutoStart(model: Model): boolean {
   const names = model.parameters.map((p) => p.name);
-  return REQUIRED.every((n) => names.includes(n)) && names.includes("wavelength") && names.includes("distance");
+  return REQUIRED.every((n) => names.includes(n)) && (names.includes("separation") || names.includes("width"))
+    && names.includes("wavelength") && names.includes("distance");
 }
 
 /**
@@ -28,42 +29,24 @@ export function supportsAutoStart(model: Model): boolean {
  * @param x positions (m, increasing), y intensities, used points only
  * @param wavelength (m) and distance (m): the known geometry
  * @param smallAngle use s = (x − c)/L instead of the exact direction sine
+ * @param fringes false for a single-slit (envelope only) model: steps 1 and 5's fringe terms are skipped
  */
-export function autoStartCandidates(x: Float64Array, y: Float64Array, wavelength: number, distance: number, smallAngle = false, count = 3): Record<string, number>[] {
+export function autoStartCandidates(x: Float64Array, y: Float64Array, wavelength: number, distance: number, smallAngle = false, count = 3, fringes = true): Record<string, number>[] {
   const n = x.length;
   if (n < 16 || !(wavelength > 0) || !(distance > 0)) return [];
   const dx = (x[n - 1] - x[0]) / (n - 1);
   if (!(dx > 0)) return [];
   const grid = resampleUniform(x, y, dx);
 
-  // 1. Fringe frequency from the spectrum.
-  const size = nextPowerOfTwo(n) * 4;
-  const re = new Float64Array(size), im = new Float64Array(size);
-  let mean = 0;
-  for (let i = 0; i < n; i++) mean += grid[i];
-  mean /= n;
-  for (let i = 0; i < n; i++) re[i] = (grid[i] - mean) * (0.5 - 0.5 * Math.cos((2 * Math.PI * i) / (n - 1)));
-  fftInPlace(re, im);
-  const half = size / 2;
-  const power = new Float64Array(half);
-  for (let k = 0; k < half; k++) power[k] = Math.hypot(re[k], im[k]);
-  // End of the envelope's low-frequency lobe, walked at the unpadded resolution (4 padded bins)
-  // so the interpolation ripples of zero padding do not stop the walk early.
-  // (Subtracting the mean can leave a dip at k = 0: climb the lobe first, then walk down it.)
-  let k0 = 0;
-  while (k0 + 4 < half - 1 && power[k0 + 4] >= power[k0] && k0 < 8) k0 += 4;
-  while (k0 + 4 < half - 1 && power[k0 + 4] < power[k0]) k0 += 4;
-  let peak = -1;
-  for (let k = k0 + 1; k < half - 1; k++) if (peak < 0 || power[k] > power[peak]) peak = k;
-  if (peak <= 0 || !(power[peak] > power[peak - 1] && power[peak] >= power[peak + 1])) return [];
-  const [a0, b0, c0] = [Math.log(power[peak - 1] + 1e-300), Math.log(power[peak] + 1e-300), Math.log(power[peak + 1] + 1e-300)];
-  const denominator = a0 - 2 * b0 + c0;
-  const shift = denominator < 0 ? Math.max(-0.5, Math.min(0.5, (0.5 * (a0 - c0)) / denominator)) : 0;
-  const frequency = (peak + shift) / (size * dx); // cycles per metre of detector
+  // 1. Fringe frequency from the spectrum (no fringes: a short smoothing window instead).
+  const spectral = fringes ? fringeFrequency(grid, dx) : null;
+  if (fringes && !spectral) return [];
+  const frequency = spectral ? spectral.frequency : 0;
+  const size = spectral ? spectral.size : 0;
   const separation = frequency * wavelength * distance;
 
   // 2. Envelope by a one-period moving average.
-  const period = Math.max(1, Math.round(1 / (frequency * dx)));
+  const period = fringes ? Math.max(1, Math.round(1 / (frequency * dx))) : Math.max(1, Math.round(n / 64));
   const envelope = movingAverage(grid, period);
   const sorted = Float64Array.from(grid).sort();
   const background0 = sorted[Math.floor(0.02 * (n - 1))];
@@ -104,8 +87,14 @@ export function autoStartCandidates(x: Float64Array, y: Float64Array, wavelength
   // The 2nd-percentile level overestimates the background when the envelope fills the window:
   // one refinement with the background of a linear fit at the first width.
   let width = widthFor(background0);
-  const firstPass = linearFringeFit(grid, x[0], dx, center, separation, width, wavelength, sine);
+  const firstPass = fringes
+    ? linearFringeFit(grid, x[0], dx, center, separation, width, wavelength, sine)
+    : linearEnvelopeFit(grid, x[0], dx, center, width, wavelength, sine);
   if (firstPass) width = widthFor(Math.min(firstPass.start.background, background0));
+  if (!fringes) {
+    const fit = linearEnvelopeFit(grid, x[0], dx, center, width, wavelength, sine);
+    return fit ? [fit.start] : [];
+  }
 
   // 5. Linear least squares for background, amplitude, visibility, phase at neighbouring frequencies.
   const binStep = 0.25 / (size * dx / 4) / frequency; // a quarter of an unpadded bin, relative
@@ -117,6 +106,56 @@ export function autoStartCandidates(x: Float64Array, y: Float64Array, wavelength
   }
   results.sort((p, q) => p.rss - q.rss);
   return results.slice(0, count).map((r) => r.start);
+}
+
+/** Fringe spatial frequency (cycles/m) from the Hann-windowed, 4× zero-padded spectrum; null when no peak. */
+function fringeFrequency(grid: Float64Array, dx: number): { frequency: number; size: number } | null {
+  const n = grid.length;
+  const size = nextPowerOfTwo(n) * 4;
+  const re = new Float64Array(size), im = new Float64Array(size);
+  let mean = 0;
+  for (let i = 0; i < n; i++) mean += grid[i];
+  mean /= n;
+  for (let i = 0; i < n; i++) re[i] = (grid[i] - mean) * (0.5 - 0.5 * Math.cos((2 * Math.PI * i) / (n - 1)));
+  fftInPlace(re, im);
+  const half = size / 2;
+  const power = new Float64Array(half);
+  for (let k = 0; k < half; k++) power[k] = Math.hypot(re[k], im[k]);
+  // End of the envelope's low-frequency lobe, walked at the unpadded resolution (4 padded bins)
+  // so the interpolation ripples of zero padding do not stop the walk early.
+  // (Subtracting the mean can leave a dip at k = 0: climb the lobe first, then walk down it.)
+  let k0 = 0;
+  while (k0 + 4 < half - 1 && power[k0 + 4] >= power[k0] && k0 < 8) k0 += 4;
+  while (k0 + 4 < half - 1 && power[k0 + 4] < power[k0]) k0 += 4;
+  let peak = -1;
+  for (let k = k0 + 1; k < half - 1; k++) if (peak < 0 || power[k] > power[peak]) peak = k;
+  if (peak <= 0 || !(power[peak] > power[peak - 1] && power[peak] >= power[peak + 1])) return null;
+  const [a0, b0, c0] = [Math.log(power[peak - 1] + 1e-300), Math.log(power[peak] + 1e-300), Math.log(power[peak + 1] + 1e-300)];
+  const denominator = a0 - 2 * b0 + c0;
+  const shift = denominator < 0 ? Math.max(-0.5, Math.min(0.5, (0.5 * (a0 - c0)) / denominator)) : 0;
+  const frequency = (peak + shift) / (size * dx); // cycles per metre of detector
+
+  return { frequency, size };
+}
+
+/** Background and amplitude by linear least squares of y ≈ b + A·sinc²(π a s/λ) (no fringes). */
+function linearEnvelopeFit(y: Float64Array, x0: number, dx: number, center: number, width: number,
+  wavelength: number, sine: (u: number) => number): { rss: number; start: Record<string, number> } | null {
+  const n = y.length;
+  let s11 = 0, s1e = 0, see = 0, sy = 0, sey = 0;
+  for (let i = 0; i < n; i++) {
+    const beta = (Math.PI * width * sine(x0 + i * dx - center)) / wavelength;
+    const e = beta === 0 ? 1 : (Math.sin(beta) / beta) ** 2;
+    s11 += 1; s1e += e; see += e * e; sy += y[i]; sey += e * y[i];
+  }
+  const det = s11 * see - s1e * s1e;
+  if (!(Math.abs(det) > 0)) return null;
+  const background = (see * sy - s1e * sey) / det, amplitude = (s11 * sey - s1e * sy) / det;
+  if (!(amplitude > 0)) return null;
+  let lowest = Infinity;
+  for (let i = 0; i < n; i++) lowest = Math.min(lowest, y[i]);
+  const floor = Math.max(1e-3 * amplitude, lowest > 0 ? 0.5 * lowest : 0);
+  return { rss: 0, start: { amplitude, background: Math.max(background, floor), center, width } };
 }
 
 /** Solves sinc²(β) = r for β in (0, π) by bisection (sinc² is decreasing there). */

@@ -62,7 +62,7 @@ export function fitJoint(datasets: JointDataset[], shared: string[], options: Fi
     if ((options.autoStart ?? true) && supportsAutoStart(d.model)) {
       const probe = prepareFit(d.profile, d.model, merged);
       const value = (name: string): number => probe.plan.base[probe.plan.names.indexOf(name)];
-      guess = autoStartCandidates(probe.x, probe.y, value("wavelength"), value("distance"))[0] ?? {};
+      guess = autoStartCandidates(probe.x, probe.y, value("wavelength"), value("distance"), false, 1, probe.plan.names.includes("separation"))[0] ?? {};
     }
     const prep = prepareFit(d.profile, d.model, merged, guess);
     for (const name of shared) {

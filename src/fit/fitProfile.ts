@@ -281,7 +281,8 @@ export function fitProfile(profile: Profile, model: Model, options: FitOptions =
   if (wantAuto) {
     if (supportsAutoStart(model)) {
       const value = (name: string): number => prep.plan.base[prep.plan.names.indexOf(name)];
-      candidates.push(...autoStartCandidates(prep.x, prep.y, value("wavelength"), value("distance")));
+      const fringes = prep.plan.names.includes("separation");
+      candidates.push(...autoStartCandidates(prep.x, prep.y, value("wavelength"), value("distance"), false, 3, fringes));
       if (candidates.length === 0) warnings.push({ code: "no-auto-start", message: "no fringes found in the spectrum for automatic starting values; started from the defaults and the given start" });
     } else if (options.autoStart) {
       warnings.push({ code: "no-auto-start", message: `automatic starting values are not available for model ${model.id}; started from the defaults and the given start` });

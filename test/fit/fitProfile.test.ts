@@ -176,6 +176,7 @@ describe("fitProfile(profile, getModel(id)) with automatic starts across model f
   for (const [id, truth] of [
     ["n-slit", { amplitude: 2000, background: 30, center: -0.15e-3, separation: 0.3e-3, width: 0.06e-3 }],
     ["two-beam", { amplitude: 2000, background: 30, center: 0.2e-3, separation: 0.8e-3, visibility: 0.6, phase: -1 }],
+    ["single-slit", { amplitude: 1500, background: 20, center: 0.3e-3, width: 0.25e-3 }],
   ] as const) {
     it(`${id}: converges to within 4 standard errors of the simulated truth`, () => {
       const model = getModel(id);
