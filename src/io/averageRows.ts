@@ -16,8 +16,9 @@ export interface Averaged {
 
 /**
  * Samples every row along the fringe normal u = (x − xc) cos θ + (y − yc) sin θ (linear
- * interpolation along the row) and averages over rows; σ from the mean square successive
- * difference between rows.
+ * interpolation along the row) and averages over rows; σ from the mean square second
+ * difference between rows (a generalisation of the successive-difference estimator of von
+ * Neumann et al. 1941, Ann. Math. Stat. 12, 153), which ignores slow changes along the fringes.
  * @param values        row-major pixels of the region
  * @param flags         1 saturated, 2 unusable (bad flat), 0 fine
  * @param roi           the region (its x gives the pixel numbers of the output)
@@ -37,6 +38,7 @@ export function averageRows(values: Float32Array, flags: Uint8Array, roi: Region
   const diff2 = new Float64Array(w);
   const diffCount = new Float64Array(w);
   const previous = new Float64Array(w).fill(NaN);
+  const beforePrevious = new Float64Array(w).fill(NaN);
   const saturatedFlag = new Uint8Array(w);
   for (let r = 0; r < h; r++) {
     const shift = (r - yc) * sin;
@@ -49,6 +51,7 @@ export function averageRows(values: Float32Array, flags: Uint8Array, roi: Region
       const c0 = Math.floor(x);
       if (c0 < 0 || c0 > w - 1 || (c0 === w - 1 && x > c0)) {
         previous[k] = NaN;
+        beforePrevious[k] = NaN;
         continue;
       }
       const t = x - c0;
@@ -57,17 +60,23 @@ export function averageRows(values: Float32Array, flags: Uint8Array, roi: Region
         if (flags[row + c0] === 1 || flags[row + c1] === 1) saturatedFlag[k] = 1;
         if (maskSaturated || flags[row + c0] === 2 || flags[row + c1] === 2) {
           previous[k] = NaN;
+          beforePrevious[k] = NaN;
           continue;
         }
       }
       const v = (values[row + c0] as number) * (1 - t) + (values[row + c1] as number) * t;
       sum[k] = (sum[k] as number) + v;
       count[k] = (count[k] as number) + 1;
+      // Second difference along the column: a straight-line change of intensity along the
+      // fringes cancels; for independent noise of variance σ², E[(v − 2p + q)²] = 6σ².
       const p = previous[k] as number;
-      if (!Number.isNaN(p)) {
-        diff2[k] = (diff2[k] as number) + (v - p) * (v - p);
+      const q = beforePrevious[k] as number;
+      if (!Number.isNaN(p) && !Number.isNaN(q)) {
+        const d = v - 2 * p + q;
+        diff2[k] = (diff2[k] as number) + d * d;
         diffCount[k] = (diffCount[k] as number) + 1;
       }
+      beforePrevious[k] = p;
       previous[k] = v;
     }
   }
@@ -79,7 +88,7 @@ export function averageRows(values: Float32Array, flags: Uint8Array, roi: Region
   // Pooled noise for columns with too few row pairs to estimate their own.
   let pooled = 0, pooledCount = 0;
   for (let k = 0; k < w; k++) { pooled += diff2[k] as number; pooledCount += diffCount[k] as number; }
-  const pooledVar = pooledCount > 0 ? pooled / (2 * pooledCount) : 0;
+  const pooledVar = pooledCount > 0 ? pooled / (6 * pooledCount) : 0;
   for (let k = 0; k < w; k++) {
     pixel[k] = roi.x + k;
     const n = count[k] as number;
@@ -90,7 +99,7 @@ export function averageRows(values: Float32Array, flags: Uint8Array, roi: Region
       continue;
     }
     y[k] = (sum[k] as number) / n;
-    const variance = (diffCount[k] as number) >= 4 ? (diff2[k] as number) / (2 * (diffCount[k] as number)) : pooledVar;
+    const variance = (diffCount[k] as number) >= 4 ? (diff2[k] as number) / (6 * (diffCount[k] as number)) : pooledVar;
     sigma[k] = Math.sqrt(Math.max(variance, varianceFloor, 1e-300) / n);
     mask[k] = 1;
     if (saturatedFlag[k] && maskSaturated) { mask[k] = 0; masked++; }

@@ -59,8 +59,8 @@ export interface LineProfile {
 
 /**
  * Turns a frame into a line profile. σ of each averaged sample comes from the mean square
- * successive difference between rows (von Neumann et al. 1941, Ann. Math. Stat. 12, 153),
- * which ignores slow changes of intensity along the fringes.
+ * second difference between rows (see averageRows), which ignores slow changes of intensity
+ * along the fringes.
  * @param stack   decoded image (one or more pages)
  * @param options region, page, dark, flat, tilt, masking
  */

@@ -1,7 +1,7 @@
 import { readFileSync } from "node:fs";
 import { encode as encodePng } from "fast-png";
 import { describe, expect, it } from "vitest";
-import { frameToLine, readImage, readProfile } from "../../src/index.js";
+import { createRandom, frameToLine, readImage, readProfile, type ImageStack } from "../../src/index.js";
 import { writeTiff } from "./writeTiff.js";
 
 const corpus = (name: string): Uint8Array => new Uint8Array(readFileSync(new URL(`./corpus/${name}`, import.meta.url)));
@@ -97,5 +97,28 @@ describe("frameToLine(stack, options)", () => {
     expect(line.warnings.join(" ")).toMatch(/1 hot pixels replaced/);
     expect(line.mask[40 - 2]).toBe(0);
     expect(line.warnings.join(" ")).toMatch(/30 saturated pixels \(code 4095\) masked: 1 profile samples at pixel 40/);
+  });
+});
+
+describe("frameToLine σ from successive row differences", () => {
+  it("frameToLine gives σ ≈ σ_pixel/√rows although the intensity changes slowly along the fringes", () => {
+    // Gaussian pixel noise of known σ = 20 (seeded); the standard error of a mean of n rows is
+    // σ/√n (common practice). A slow Gaussian beam profile along the rows must not inflate it.
+    const width = 200, height = 400, noise = 20;
+    const random = createRandom(3);
+    const page = new Float32Array(width * height);
+    for (let r = 0; r < height; r++) {
+      const beam = Math.exp(-(((r - height / 2) / 150) ** 2));
+      for (let c = 0; c < width; c++) page[r * width + c] = 1000 + 2000 * beam * (1 + Math.cos((2 * Math.PI * c) / 25)) + noise * random.normal();
+    }
+    const stack: ImageStack = { width, height, bitDepth: 32, sampleFormat: "float", pages: [page], integerCodes: false, topCode: undefined, format: "tiff", notes: [] };
+    const line = frameToLine(stack, { tilt: 0, repairHotPixels: false });
+    const expected = noise / Math.sqrt(height);
+    const mean = line.sigma.reduce((a, b) => a + b, 0) / line.sigma.length;
+    expect(Math.abs(mean / expected - 1)).toBeLessThan(0.05);
+    // The plain scatter across rows would be dominated by the beam profile:
+    let scatter = 0;
+    for (let r = 0; r < height; r++) scatter += (page[r * width]! - line.y[0]!) ** 2;
+    expect(Math.sqrt(scatter / (height - 1)) / Math.sqrt(height)).toBeGreaterThan(10 * expected);
   });
 });
