@@ -1,4 +1,8 @@
+import { execFileSync } from "node:child_process";
+import { existsSync } from "node:fs";
+import { fileURLToPath } from "node:url";
 import { describe, expect, it } from "vitest";
+import { createRandom } from "../../src/random.js";
 import { InvalidArgumentError } from "../../src/errors.js";
 import type { FitParameter } from "../../src/fit/types.js";
 import { formatParameter, formatQuantity } from "../../src/report/formatQuantity.js";
@@ -99,5 +103,30 @@ describe("formatParameter(parameter, options)", () => {
   it("formatParameter(at upper bound) keeps the numbers and marks the bound", () => {
     const p = { ...base, name: "visibility", unit: "1", value: 1, stderr: 0.02, fixed: false, atBound: "upper" as const };
     expect(formatParameter(p).text).toBe("1.000 ± 0.020 (at upper bound)");
+  });
+});
+
+describe("roundPair against Python's decimal module (exact binary values, round half up)", () => {
+  const python = "/usr/bin/python3";
+  const haveps = existsSync(python);
+  if (!haveps) console.warn("SKIPPED: roundPair reference check (/usr/bin/python3 not found)");
+  it.skipIf(!haveps)("roundPair(value, uncertainty, digits) equals the decimal-module result for 2000 seeded cases", () => {
+    const rng = createRandom(2024);
+    const cases: [number, number, number][] = [];
+    for (let i = 0; i < 2000; i++) {
+      const u = 10 ** (rng.uniform() * 16 - 12) * (1 + rng.uniform() * 9);
+      const v = (rng.uniform() < 0.5 ? -1 : 1) * u * 10 ** (rng.uniform() * 6 - 1);
+      cases.push([v, u, 1 + Math.floor(rng.uniform() * 3)]);
+    }
+    const script = fileURLToPath(new URL("./reference/round_pair.py", import.meta.url));
+    const expected = JSON.parse(execFileSync(python, [script], { input: JSON.stringify(cases) }).toString()) as [string, string][];
+    const mismatches = cases
+      .map(([v, u, d], i) => ({ v, u, d, got: roundPair(v, u, d), want: expected[i] }))
+      .filter((c) => c.got.value !== c.want[0] || c.got.uncertainty !== c.want[1]);
+    expect(expected.length).toBe(cases.length);
+    // The cases cover rounding above the units digit and far below it.
+    expect(cases.filter(([v, u, d]) => roundPair(v, u, d).lastDigit > 0).length).toBeGreaterThan(100);
+    expect(cases.filter(([v, u, d]) => roundPair(v, u, d).lastDigit < -8).length).toBeGreaterThan(100);
+    expect(mismatches.slice(0, 5)).toEqual([]);
   });
 });
