@@ -5,7 +5,7 @@
  *                         script that never sees an AMD `define` (safe on require.js pages)
  * plus any extra entries (test pages). Run: `npx tsx widgets/build.ts`.
  */
-import { build, type BuildOptions } from "esbuild";
+import { build, type BuildOptions, type Plugin } from "esbuild";
 import { fileURLToPath } from "node:url";
 import path from "node:path";
 
@@ -37,6 +37,16 @@ export interface ExtraEntry {
  */
 export async function buildWidgetBundles(extra: ExtraEntry[] = []): Promise<string[]> {
   const written: string[] = [];
+  // The in-page fitter's worker, bundled first and handed to the renderer as a string.
+  const worker = await build({ ...common, entryPoints: [path.join(widgetsDir, "src/entry/fitWorker.ts")], format: "iife", write: false, outfile: "fit-worker.js" });
+  const workerSource = worker.outputFiles![0]!.text;
+  const workerPlugin: Plugin = {
+    name: "fit-worker-source",
+    setup(b) {
+      b.onResolve({ filter: /^fringekit:fit-worker-source$/ }, (args) => ({ path: args.path, namespace: "fk-worker" }));
+      b.onLoad({ filter: /.*/, namespace: "fk-worker" }, () => ({ contents: `export default ${JSON.stringify(workerSource)};`, loader: "js" }));
+    },
+  };
   const moduleOut = path.join(distDir, "fringekit-widgets.js");
   await build({ ...common, entryPoints: [path.join(widgetsDir, "src/entry/module.ts")], format: "esm", outfile: moduleOut });
   written.push(moduleOut);
@@ -45,7 +55,7 @@ export async function buildWidgetBundles(extra: ExtraEntry[] = []): Promise<stri
     const outfile = path.join(distDir, item.out);
     // IIFE output with `define` renamed away: a require.js page would otherwise route UMD
     // dependencies inside the bundle down the AMD path and they would never load.
-    await build({ ...common, entryPoints: [item.entry], format: "iife", outfile, define: { ...common.define, define: "undefined" } });
+    await build({ ...common, entryPoints: [item.entry], format: "iife", outfile, define: { ...common.define, define: "undefined" }, plugins: [workerPlugin] });
     written.push(outfile);
   }
   return written;

@@ -13,6 +13,7 @@ import { effectiveMask, paramsForModel, type ParamState } from "../../widgets/sr
 import { display, MIME_BUNDLE, type MimeBundle } from "../display.js";
 import { WidgetModel } from "../widget/model.js";
 import { typedArraySerializer, type TypedArray } from "../widget/serializers.js";
+import { fitOptionsFromParams } from "../../widgets/src/fitRequest.js";
 import { explorerFallback } from "./fallback.js";
 import { fitSummary } from "./fitSummary.js";
 import { startFit, type RunningFit } from "./fitRunner.js";
@@ -120,27 +121,8 @@ export class Explorer {
   /** The fit options the current widget state stands for (start, fixed, freed, bounds, noise, mask). */
   fitRequest(): { profile: Profile; options: Omit<FitOptions, "onProgress" | "signal"> } {
     const state = this.widget.getState();
-    const params = paramsForModel(this.model, state.params);
-    const start: Record<string, number> = {};
-    const fix: Record<string, number> = {};
-    const free: string[] = [];
-    const bounds: Record<string, [number, number]> = {};
-    for (const spec of this.model.parameters) {
-      const p = params[spec.name]!;
-      if (p.fixed || spec.integer) {
-        fix[spec.name] = p.value;
-        continue;
-      }
-      start[spec.name] = p.value;
-      if (spec.fixedByDefault) free.push(spec.name);
-      if (p.lower !== spec.lower || p.upper !== spec.upper) bounds[spec.name] = [p.lower, p.upper];
-    }
     const mask = effectiveMask(this.profile.x, this.profile.mask ?? null, state.window, state.masked_ranges);
-    const noise = state.noise as FitOptions["noise"];
-    return {
-      profile: { ...this.profile, mask },
-      options: { start, fix, free, bounds, noise, autoStart: false },
-    };
+    return { profile: { ...this.profile, mask }, options: fitOptionsFromParams(this.model, state.params, state.noise) };
   }
 
   /**

@@ -1,0 +1,117 @@
+/**
+ * Static HTML export of an executed notebook whose widgets still work with no kernel and no
+ * network: the widget state saved in the notebook's metadata is embedded, and one inlined
+ * renderer script draws every widget from it (sliders recompute in the page, Fit runs the
+ * fitter in a Web Worker).
+ */
+import { existsSync } from "node:fs";
+import { readFile, rename, rm, writeFile } from "node:fs/promises";
+import path from "node:path";
+import { fileURLToPath } from "node:url";
+import { DataError, InvalidArgumentError } from "../../src/errors.js";
+import { escapeHtml } from "../../src/report/escape.js";
+
+const STATE_MIME = "application/vnd.jupyter.widget-state+json";
+const VIEW_MIME = "application/vnd.jupyter.widget-view+json";
+
+/** Where the renderer bundle is (widgets/dist/fringekit-embed.js, from source or from dist/). */
+export function rendererBundlePath(): string {
+  const here = path.dirname(fileURLToPath(import.meta.url));
+  const candidates = [path.resolve(here, "../../widgets/dist/fringekit-embed.js"), path.resolve(here, "../../../widgets/dist/fringekit-embed.js")];
+  const found = candidates.find((file) => existsSync(file));
+  if (!found) {
+    throw new DataError("widgets/dist/fringekit-embed.js", "the widget renderer bundle is not built", "build it with `npx tsx widgets/build.ts` (or `npm run build:widgets`)");
+  }
+  return found;
+}
+
+type Output = Record<string, any>;
+const text = (value: unknown) => (Array.isArray(value) ? value.join("") : String(value ?? ""));
+/** Text inside <script>: `</` would end the element early. */
+const scriptSafe = (value: string) => value.replace(/<\/(script)/gi, "<\\/$1").replace(/<!--/g, "<\\!--");
+
+function renderOutput(output: Output, models: Set<string>): string {
+  switch (output.output_type) {
+    case "stream":
+      return `<pre class="fk-stream fk-${escapeHtml(String(output.name))}">${escapeHtml(text(output.text))}</pre>`;
+    case "error":
+      return `<pre class="fk-error">${escapeHtml(`${output.ename}: ${output.evalue}`)}</pre>`;
+    case "display_data":
+    case "execute_result": {
+      const data = (output.data ?? {}) as Record<string, unknown>;
+      const view = data[VIEW_MIME] as { model_id?: string } | undefined;
+      const fallback = data["text/html"] !== undefined ? `<div class="fk-static-fallback">${text(data["text/html"])}</div>`
+        : data["text/plain"] !== undefined ? `<pre class="fk-static-fallback">${escapeHtml(text(data["text/plain"]))}</pre>` : "";
+      if (view?.model_id && models.has(view.model_id)) {
+        return `<div class="fk-output">${fallback}<script type="${VIEW_MIME}">${scriptSafe(JSON.stringify(view))}</script></div>`;
+      }
+      if (data["image/png"] !== undefined) return `<img alt="figure" src="data:image/png;base64,${escapeHtml(text(data["image/png"]).trim())}">`;
+      if (data["image/svg+xml"] !== undefined) return `<img alt="figure" src="data:image/svg+xml;base64,${Buffer.from(text(data["image/svg+xml"])).toString("base64")}">`;
+      return fallback;
+    }
+    default:
+      return "";
+  }
+}
+
+/**
+ * The HTML page for a notebook document (parsed .ipynb, nbformat 4) with `renderer` (the
+ * renderer bundle's source) inlined.
+ */
+export function notebookHtml(notebook: Record<string, any>, renderer: string, title = "notebook"): string {
+  const state = notebook.metadata?.widgets?.[STATE_MIME] as { state?: Record<string, unknown> } | undefined;
+  const models = new Set(Object.keys(state?.state ?? {}));
+  const cells = (notebook.cells ?? []) as Record<string, any>[];
+  const body = cells.map((cell) => {
+    const source = text(cell.source);
+    if (cell.cell_type === "markdown") return `<div class="fk-md"><pre>${escapeHtml(source)}</pre></div>`;
+    if (cell.cell_type !== "code") return "";
+    const outputs = ((cell.outputs ?? []) as Output[]).map((o) => renderOutput(o, models)).join("\n");
+    return `<div class="fk-cell"><pre class="fk-code">${escapeHtml(source)}</pre>${outputs}</div>`;
+  }).join("\n");
+  return `<!doctype html>
+<html lang="en"><head><meta charset="utf-8"><meta name="viewport" content="width=device-width, initial-scale=1">
+<title>${escapeHtml(title)}</title>
+<style>
+body { font: 14px/1.45 system-ui, sans-serif; color: #1e293b; max-width: 1180px; margin: 24px auto; padding: 0 16px; }
+.fk-cell { margin: 14px 0; }
+pre.fk-code { background: #f8fafc; border-left: 3px solid #94a3b8; padding: 8px 10px; overflow-x: auto; font-size: 12.5px; }
+pre.fk-stream { margin: 4px 0; font-size: 12.5px; }
+pre.fk-error { color: #b91c1c; }
+.fk-md pre { white-space: pre-wrap; font: inherit; }
+img { max-width: 100%; }
+</style>
+${state ? `<script type="${STATE_MIME}">${scriptSafe(JSON.stringify(state))}</script>` : ""}
+</head><body>
+${body}
+<script id="fringekit-widget-renderer">${scriptSafe(renderer)}</script>
+</body></html>
+`;
+}
+
+/**
+ * Write an HTML export of the executed notebook `ipynbPath` to `outPath` (atomically: temporary
+ * file, then rename). The notebook file is only read.
+ * @throws DataError when the notebook cannot be read or the renderer bundle is missing
+ */
+export async function exportNotebookHtml(ipynbPath: string, outPath: string): Promise<void> {
+  if (typeof ipynbPath !== "string" || !ipynbPath.endsWith(".ipynb")) throw new InvalidArgumentError("ipynbPath", ipynbPath, "a path to an .ipynb file");
+  if (typeof outPath !== "string" || path.resolve(outPath) === path.resolve(ipynbPath)) throw new InvalidArgumentError("outPath", outPath, "an .html path other than the notebook");
+  let notebook: Record<string, any>;
+  try {
+    notebook = JSON.parse(await readFile(ipynbPath, "utf8"));
+  } catch (error) {
+    throw new DataError(path.basename(ipynbPath), `cannot read the notebook (${(error as Error).message})`, "pass an executed .ipynb file saved by Jupyter or nbclient");
+  }
+  if (notebook.nbformat !== 4) throw new DataError(path.basename(ipynbPath), `nbformat ${notebook.nbformat}`, "convert it to nbformat 4 first (jupyter nbconvert --to notebook)");
+  const renderer = await readFile(rendererBundlePath(), "utf8");
+  const html = notebookHtml(notebook, renderer, path.basename(ipynbPath, ".ipynb"));
+  const temp = `${outPath}.${process.pid}.tmp`;
+  try {
+    await writeFile(temp, html);
+    await rename(temp, outPath);
+  } catch (error) {
+    await rm(temp, { force: true });
+    throw error;
+  }
+}

@@ -1,0 +1,28 @@
+/**
+ * Renders widgets from state embedded in a page, the way notebook HTML exports carry it:
+ * `<script type="application/vnd.jupyter.widget-state+json">` (schema v2) holds every model,
+ * each `<script type="application/vnd.jupyter.widget-view+json">` marks where a view goes.
+ */
+import { HTMLManager } from "@jupyter-widgets/html-manager/lib/htmlmanager.js";
+
+/** Render every embedded view under `root`; returns the number of views drawn. */
+export async function renderEmbedded(makeManager: () => HTMLManager, root: ParentNode = document): Promise<number> {
+  let drawn = 0;
+  for (const stateTag of Array.from(root.querySelectorAll('script[type="application/vnd.jupyter.widget-state+json"]'))) {
+    const manager = makeManager();
+    const models = await manager.set_state(JSON.parse(stateTag.textContent ?? "{}"));
+    for (const viewTag of Array.from(root.querySelectorAll('script[type="application/vnd.jupyter.widget-view+json"]'))) {
+      const { model_id: id } = JSON.parse(viewTag.textContent ?? "{}") as { model_id?: string };
+      const model = models.find((m) => m.model_id === id);
+      if (!model || !viewTag.parentElement) continue;
+      const host = document.createElement("div");
+      host.className = "widget-subarea";
+      viewTag.parentElement.insertBefore(host, viewTag);
+      // The text fallback beside the tag is for readers without JavaScript.
+      viewTag.parentElement.querySelector(".fk-static-fallback")?.remove();
+      await manager.display_view(await manager.create_view(model), host);
+      drawn++;
+    }
+  }
+  return drawn;
+}
