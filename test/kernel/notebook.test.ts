@@ -2,7 +2,6 @@
 // stored widget state is validated against @jupyter-widgets/schema v2 with Python's jsonschema.
 import { mkdtempSync, rmSync } from "node:fs";
 import { createRequire } from "node:module";
-import { tmpdir } from "node:os";
 import path from "node:path";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { describeRun, installTempKernel, missingPrerequisite, parseChecks, repoRoot, runPython, type Check, type KernelPrefix } from "./helpers.js";
