@@ -90,6 +90,15 @@ if (!existsSync(built) || statSync(join(root, "dist", "src", "index.js")).mtimeM
 } else {
   say("  dist/ is up to date");
 }
+// The browser bundle that draws widgets in the offline HTML copies (widgets/dist/ is not in git).
+const widgetBundle = join(root, "widgets", "dist", "fringekit-embed.js");
+if (existsSync(join(root, "widgets", "build.ts")) && (!existsSync(widgetBundle) || statSync(widgetBundle).mtimeMs < Math.max(newestIn(join(root, "widgets", "src")), newestIn(join(root, "src"))))) {
+  if (run(process.execPath, [join(root, "node_modules", "tsx", "dist", "cli.mjs"), join("widgets", "build.ts")]) !== 0) {
+    say("  building the widget bundle failed (see above); the HTML copies will have no live widgets");
+  } else {
+    say("  widgets/dist/ built");
+  }
+}
 
 stage("kernelspec into .jupyter-local/ (not your global Jupyter folder)");
 const { installKernelspec } = await import(pathToFileURL(join(root, "dist", "kernel-ext", "install.js")).href);
@@ -112,15 +121,22 @@ const executed = run(python, [join("scripts", "run-notebooks.py"), join(out, "no
 stage("offline HTML copies");
 mkdirSync(join(out, "html"), { recursive: true });
 const exporter = join(root, "dist", "kernel-ext", "widgets", "exportHtml.js");
+let exported = false;
 if (existsSync(exporter)) {
-  const { exportNotebookHtml } = await import(pathToFileURL(exporter).href);
-  for (const notebook of notebooks) {
-    const name = notebook.split("/").pop().replace(/\.ipynb$/, "");
-    await exportNotebookHtml(join(out, "notebooks", `${name}.ipynb`), join(out, "html", `${name}.html`));
-    say(`  out/html/${name}.html (live widgets)`);
+  try {
+    const { exportNotebookHtml } = await import(pathToFileURL(exporter).href);
+    for (const name of readdirSync(join(out, "notebooks")).filter((n) => n.endsWith(".ipynb")).sort()) {
+      const html = name.replace(/\.ipynb$/, ".html");
+      await exportNotebookHtml(join(out, "notebooks", name), join(out, "html", html));
+      say(`  out/html/${html} (live widgets, no kernel or network needed)`);
+    }
+    exported = true;
+  } catch (error) {
+    say(`  the widget HTML exporter failed: ${error instanceof Error ? error.message : String(error)}`);
   }
-} else {
-  say("  the widget HTML exporter is not built: writing static HTML with nbconvert (no live widgets or plots)");
+}
+if (!exported) {
+  say("  writing static HTML with nbconvert instead (no live widgets or plots)");
   const executedNotebooks = readdirSync(join(out, "notebooks")).filter((name) => name.endsWith(".ipynb")).map((name) => join(out, "notebooks", name));
   const status = run(python, ["-m", "nbconvert", "--to", "html", "--log-level", "WARN", "--output-dir", join(out, "html"), ...executedNotebooks], { env: jupyterEnv });
   if (status !== 0) say("  nbconvert failed (see above); the executed notebooks are still in out/notebooks/");
