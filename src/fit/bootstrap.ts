@@ -11,7 +11,7 @@ import type { Profile } from "../profile.js";
 import { createRandom } from "../random.js";
 import { bestOf, prepareFit } from "./fitProfile.js";
 import { quantileSorted } from "./propagate.js";
-import { optionsFromResult } from "./refit.js";
+import { checkRefittable, optionsFromResult } from "./refit.js";
 import { STOP_REASONS } from "./status.js";
 import type { FitOptions, FitResult } from "./types.js";
 
@@ -59,6 +59,7 @@ export function bootstrap(result: FitResult, profile: Profile, model: Model, opt
   if (!Number.isInteger(samples) || samples < 2) throw new InvalidArgumentError("samples", samples, "an integer >= 2");
   const level = options.level ?? 0.6827;
   if (!(level > 0 && level < 1)) throw new InvalidArgumentError("level", level, "a probability between 0 and 1");
+  checkRefittable(result, profile, "bootstrap");
   const fitOptions = optionsFromResult(result, model, options.fit);
   const prep = prepareFit(profile, model, fitOptions);
   const rng = createRandom(options.seed ?? 1);

@@ -65,6 +65,9 @@ export function fitJoint(datasets: JointDataset[], shared: string[], options: Fi
       guess = autoStartCandidates(probe.x, probe.y, value("wavelength"), value("distance"), false, 1, probe.plan.names.includes("separation"))[0] ?? {};
     }
     const prep = prepareFit(d.profile, d.model, merged, guess);
+    if (prep.noise.id === "robust" && prep.noise.sigmaSource === "unknown") {
+      throw new InvalidArgumentError(`noise of dataset ${i}`, "robust", "a profile with σ or counts for robust noise in a joint fit (σ cannot be estimated jointly)");
+    }
     for (const name of shared) {
       const j = prep.plan.names.indexOf(name);
       if (!prep.plan.free.includes(j)) throw new InvalidArgumentError(`shared parameter ${name} in dataset ${i}`, "fixed or tied", "free in every dataset (remove it from fix/tie)");

@@ -9,7 +9,7 @@ import type { Model } from "../physics/model.js";
 import type { Profile } from "../profile.js";
 import { normalQuantile } from "../stats/normal.js";
 import { bestOf, prepareFit } from "./fitProfile.js";
-import { objectiveScale, optionsFromResult } from "./refit.js";
+import { checkRefittable, objectiveScale, optionsFromResult } from "./refit.js";
 import type { FitOptions, FitResult, FitWarning } from "./types.js";
 
 /** A profile-likelihood interval (ends in the parameter's SI unit). */
@@ -42,6 +42,7 @@ export function profileInterval(result: FitResult, profile: Profile, model: Mode
   const k = result.freeNames.indexOf(name);
   if (k < 0) throw new InvalidArgumentError("parameter", name, `a free parameter of the fit: ${result.freeNames.join(", ")}`);
   if (!(level > 0 && level < 1)) throw new InvalidArgumentError("level", level, "a probability between 0 and 1, e.g. 0.6827 or 0.95");
+  checkRefittable(result, profile, "profileInterval");
   const parameter = result.parameters.find((p) => p.name === name)!;
   const z = normalQuantile(0.5 + level / 2);
   const threshold = z * z;

@@ -3,7 +3,9 @@
  * bootstrap): fixed and tied parameters, bounds, noise model and σ handling are read back
  * from the result unless options are given.
  */
+import { InvalidArgumentError } from "../errors.js";
 import type { Model } from "../physics/model.js";
+import type { Profile } from "../profile.js";
 import type { FitOptions, FitResult } from "./types.js";
 
 /** Fit options equivalent to the ones that produced `result`, with every free parameter started at its fitted value. */
@@ -38,4 +40,15 @@ export function objectiveScale(result: FitResult): number {
   if (result.noise === "poisson") return 1;
   if (result.noise === "robust") return s.dof > 0 ? s.objective / s.dof : 1;
   return result.covarianceScaled ? s.reducedChi2 : 1;
+}
+
+/**
+ * Refuses refits that cannot reproduce the original objective: a robust fit of data with neither
+ * σ nor counts estimated its σ from the residuals, which a refit would not repeat.
+ */
+export function checkRefittable(result: FitResult, profile: Profile, purpose: string): void {
+  if (result.noise === "robust" && !profile.sigma && !profile.counts) {
+    throw new InvalidArgumentError(`${purpose} of a robust fit`, "profile without σ or counts",
+      "give the profile a σ (profile.sigma) and fit again, or use the covariance of the robust fit");
+  }
 }

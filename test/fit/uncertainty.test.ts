@@ -1,4 +1,5 @@
 import { describe, expect, it } from "vitest";
+import { InvalidArgumentError } from "../../src/errors.js";
 import { bootstrap } from "../../src/fit/bootstrap.js";
 import { fitJoint } from "../../src/fit/fitJoint.js";
 import { fitProfile } from "../../src/fit/fitProfile.js";
@@ -42,6 +43,17 @@ describe("profileInterval(result, profile, model, name, level)", () => {
     const interval = profileInterval(result, profile, constant, "mu", 0.95);
     expect(interval.lower).toBeCloseTo(3.9928070974865397, 5);
     expect(interval.upper).toBeCloseTo(5.935185794441937, 5);
+  });
+});
+
+describe("profileInterval and bootstrap of a robust fit without σ", () => {
+  it("refuse with InvalidArgumentError (σ was estimated from the residuals and a refit would not repeat it)", () => {
+    const { x, y } = lineProfile();
+    const profile: Profile = { x, y, yUnit: "1", counts: false };
+    const result = fitProfile(profile, line, { start: { a: 1, b: 1 }, noise: "robust" });
+    expect(result.converged).toBe(true);
+    expect(() => profileInterval(result, profile, line, "b")).toThrow(InvalidArgumentError);
+    expect(() => bootstrap(result, profile, line, { samples: 5 })).toThrow(InvalidArgumentError);
   });
 });
 
