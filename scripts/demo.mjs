@@ -12,8 +12,9 @@ const out = join(root, "out");
 const jupyterData = join(root, ".jupyter-local");
 const python = "/usr/bin/python3";
 const chromium = "/usr/bin/chromium";
-// Debian packages: nbclient runs the notebooks, nbconvert writes the HTML copies, Chromium renders the figures.
-const debianPackages = ["python3-nbclient", "python3-nbformat", "python3-jupyter-client", "python3-nbconvert", "chromium"];
+// Debian packages: nbclient runs the notebooks, nbconvert writes static HTML copies, Chromium
+// renders the figures (in Liberation Sans when Arial is not installed).
+const debianPackages = ["python3-nbclient", "python3-nbformat", "python3-jupyter-client", "python3-nbconvert", "chromium", "fonts-liberation"];
 const outputFolders = ["notebooks", "html", "figures", "results"];
 const steps = 6;
 let step = 0;
