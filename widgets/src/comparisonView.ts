@@ -9,6 +9,12 @@ import { axis, baseLayout, FigureView } from "./figureView.js";
 import type { ComparisonRow } from "./comparisonModel.js";
 import { palette } from "./styles.js";
 
+/** Fixed decimals for everyday magnitudes, 3 significant digits in exponent form above 10⁵. */
+function fixedOrExp(value: number, decimals: number): string {
+  if (!Number.isFinite(value)) return String(value);
+  return Math.abs(value) >= 1e5 ? value.toExponential(2) : value.toFixed(decimals);
+}
+
 export class ComparisonView extends FigureView {
   private tableEl!: HTMLDivElement;
 
@@ -30,15 +36,14 @@ export class ComparisonView extends FigureView {
     setChildren(this.tableEl,
       h("div", { class: "fk-verdict", "data-region": "verdict" }, this.model.get("verdict") as string),
       h("div", { class: "fk-scroll" }, h("table", { class: "fk-table" },
-        h("thead", {}, h("tr", {}, ...["model", "k", "χ²ᵣ", "ΔAIC", "weight", "BIC"].map((t) => h("th", {}, t)))),
-        h("tbody", {}, ...table.map((r, i) => h("tr", { class: i === best ? "fk-best" : undefined },
+        h("thead", {}, h("tr", {}, ...["model", "k", "χ²ᵣ", "ΔAIC", "weight"].map((t) => h("th", {}, t)))),
+        h("tbody", {}, ...table.map((r, i) => h("tr", { class: i === best ? "fk-best" : undefined, title: `AIC ${formatNumber(r.aic, 7)}, BIC ${formatNumber(r.bic, 7)}` },
           h("td", {}, h("span", { class: "fk-swatch", style: `background:${palette.series[i % palette.series.length]}` }), r.label + (r.converged ? "" : " (not converged)")),
           h("td", {}, String(r.nFree)),
-          h("td", {}, formatNumber(r.reducedChi2, 4)),
-          h("td", {}, formatNumber(r.deltaAic, 3)),
-          h("td", {}, formatNumber(r.weight, 3)),
-          h("td", {}, formatNumber(r.bic, 6))))))),
-      h("div", { class: "fk-status" }, "ΔAIC relative to the lowest AIC; weight = Akaike weight."));
+          h("td", {}, fixedOrExp(r.reducedChi2, 3)),
+          h("td", {}, fixedOrExp(r.deltaAic, 1)),
+          h("td", {}, r.weight.toFixed(3))))))),
+      h("div", { class: "fk-status" }, "k free parameters; χ²ᵣ reduced χ²; ΔAIC to the lowest AIC; weight = Akaike weight. Hover a row for AIC and BIC."));
     void this.draw(table);
   }
 

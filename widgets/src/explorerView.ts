@@ -438,7 +438,7 @@ export class ExplorerView extends FigureView {
         h("tbody", {}, ...rows))),
       h("table", { class: "fk-table", style: "margin-top:4px" }, h("tbody", {},
         h("tr", {}, h("td", {}, "χ² / dof"), h("td", {}, `${formatNumber(s.chi2, 6)} / ${s.dof}`)),
-        h("tr", {}, h("td", {}, "reduced χ²"), h("td", { "data-stat": "reducedChi2" }, formatNumber(s.reducedChi2, 4))),
+        h("tr", {}, h("td", {}, "reduced χ²"), h("td", { "data-stat": "reducedChi2" }, Number.isFinite(s.reducedChi2) ? s.reducedChi2.toFixed(3) : "—")),
         h("tr", {}, h("td", {}, "points used, free params"), h("td", {}, `${s.n}, ${s.nFree}`)),
         h("tr", {}, h("td", {}, "AIC, BIC"), h("td", {}, `${formatNumber(s.aic, 6)}, ${formatNumber(s.bic, 6)}`)),
         h("tr", {}, h("td", {}, "noise model"), h("td", {}, result.noise)))),

@@ -37,7 +37,8 @@ const css = `
 .fk-seg button { border: none; border-radius: 0; padding: 3px 8px; }
 .fk-seg button[aria-pressed=true] { background: ${palette.ink}; color: #fff; }
 .fk-body { display: grid; grid-template-columns: minmax(0, 1fr) 350px; gap: 10px; }
-@container (max-width: 760px) { .fk-body { grid-template-columns: minmax(0, 1fr); } }
+.fk-body.fk-wide-side { grid-template-columns: minmax(0, 1fr) 420px; }
+@container (max-width: 760px) { .fk-body, .fk-body.fk-wide-side { grid-template-columns: minmax(0, 1fr); } }
 .fk-plot { min-height: 420px; width: 100%; }
 .fk-plotwrap { position: relative; min-width: 0; }
 .fk-overlay { position: absolute; left: 0; top: 0; pointer-events: none; }
@@ -65,7 +66,8 @@ table.fk-table th:first-child, table.fk-table td:first-child { text-align: left;
 table.fk-table th { color: ${palette.muted}; font-weight: 600; }
 table.fk-table tr.fk-best td { font-weight: 600; }
 .fk-warn { color: #92400e; background: #fffbeb; border-left: 3px solid #d97706; padding: 3px 6px; font-size: 12px; margin: 2px 0; }
-.fk-verdict { font-weight: 600; padding: 4px 0; }
+.fk-verdict { padding: 6px 8px; font-size: 12.5px; background: #f0fdfa; border-left: 3px solid ${palette.fit}; border-radius: 2px; }
+
 .fk-swatch { display: inline-block; width: 10px; height: 10px; border-radius: 2px; margin-right: 5px; vertical-align: -1px; }
 .fk-scroll { overflow-x: auto; }
 `;

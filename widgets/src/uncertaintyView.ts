@@ -26,12 +26,16 @@ export class UncertaintyView extends FigureView {
     this.buildFrame(this.model.get("title") as string, 360);
     this.corrEl = h("div", { class: "fk-plot", style: "min-height:300px", "data-region": "correlation" });
     this.listEl = h("div", { "data-region": "intervals" });
-    this.root.append(h("div", { class: "fk-body" }, this.plotEl, h("div", { class: "fk-side" }, this.corrEl, this.listEl)));
+    this.root.append(h("div", { class: "fk-body fk-wide-side" }, this.plotEl, h("div", { class: "fk-side" }, this.corrEl, this.listEl)));
     this.listenTo(this.model, "change", () => this.update());
     this.update();
   }
 
   override update(): void {
+    void this.draw();
+  }
+
+  protected override resized(): void {
     void this.draw();
   }
 
@@ -98,7 +102,7 @@ export class UncertaintyView extends FigureView {
       type: "heatmap", x: names, y: names, z, text, texttemplate: "%{text}", zmin: -1, zmax: 1,
       colorscale: [[0, "#1d4ed8"], [0.5, "#f8fafc"], [1, "#c2410c"]], colorbar: { thickness: 10, len: 0.9 },
       hovertemplate: "%{y} · %{x}: %{z:.3f}<extra></extra>",
-    }], baseLayout({ height: 300, margin: { l: 90, r: 10, t: 24, b: 70 }, yaxis: { autorange: "reversed", automargin: true }, xaxis: { automargin: true, tickangle: -40 },
+    }], baseLayout({ width: this.corrEl.clientWidth || 400, height: 300, margin: { l: 90, r: 10, t: 24, b: 70 }, yaxis: { autorange: "reversed", automargin: true }, xaxis: { automargin: true, tickangle: -40 },
       title: { text: "correlation", font: { size: 12 }, x: 0.02 }, showlegend: false }), plotConfig);
   }
 }
