@@ -102,8 +102,11 @@ export function frameToLine(stack: ImageStack, options: FrameOptions = {}): Line
     notes.push("divided by the flat field (normalised to mean 1)");
     if (bad > 0) warnings.push(`${bad} pixels with a flat-field gain below 5 % were masked`);
   }
-  const hot = options.repairHotPixels === false ? 0 : repairHotPixels(values, w, h, saturated);
-  if (hot > 0) warnings.push(`${hot} hot pixels replaced by the mean of their neighbours`);
+  const hot = options.repairHotPixels === false ? [] : repairHotPixels(values, w, h, saturated);
+  if (hot.length > 0) {
+    const where = hot.slice(0, 5).map(([c, r]) => `(${roi.x + c}, ${roi.y + r})`).join(", ");
+    warnings.push(`${hot.length} hot pixels replaced by the mean of their neighbours at (column, row) ${where}${hot.length > 5 ? ", ..." : ""}`);
+  }
   const tilt = options.tilt === undefined || options.tilt === "auto" ? refineTilt(values, saturated, roi, measureTilt(values, w, h, saturated)) : options.tilt;
   if (!Number.isFinite(tilt) || Math.abs(tilt) >= Math.PI / 4) throw new InvalidArgumentError("tilt", tilt, "an angle in radians between −π/4 and π/4, or \"auto\"");
   if (options.tilt === undefined || options.tilt === "auto") notes.push(`fringe tilt ${(tilt * 180 / Math.PI).toFixed(3)}° measured and undone`);
