@@ -5,6 +5,7 @@
  */
 import { InvalidArgumentError } from "../errors.js";
 import type { FitResult } from "../fit/types.js";
+import { akaikeWeights } from "../stats/criteria.js";
 import type { NestedTestResult } from "../stats/nested.js";
 import { fixed } from "./fitTable.js";
 import type { ReportTable, ReportTableRow } from "./table.js";
@@ -40,7 +41,8 @@ export interface ComparisonRow {
 }
 
 /**
- * AIC/BIC ranking of fits to the same data, best (lowest AIC) first.
+ * AIC/BIC ranking of fits to the same data, best (lowest AIC) first; Δ and Akaike weights
+ * from stats' `akaikeWeights` (the same arithmetic `compareFits` uses).
  * Refuses fits with different point counts or noise models: their likelihoods are not comparable.
  */
 export function rankFits(fits: readonly LabelledFit[]): ComparisonRow[] {
@@ -55,10 +57,10 @@ export function rankFits(fits: readonly LabelledFit[]): ComparisonRow[] {
       );
     }
   }
-  const minAic = Math.min(...fits.map((f) => f.result.statistics.aic));
-  const minBic = Math.min(...fits.map((f) => f.result.statistics.bic));
-  const raw = fits.map((f) => Math.exp(-(f.result.statistics.aic - minAic) / 2));
-  const total = raw.reduce((a, b) => a + b, 0);
+  // Δ and weights come from stats (one implementation of the criteria arithmetic); the
+  // values ranked are the ones the fits report, which the table shows beside them.
+  const aic = akaikeWeights(fits.map((f) => f.result.statistics.aic));
+  const bic = akaikeWeights(fits.map((f) => f.result.statistics.bic));
   return fits
     .map((f, i) => ({
       label: f.label,
@@ -67,10 +69,10 @@ export function rankFits(fits: readonly LabelledFit[]): ComparisonRow[] {
       reducedChi2: f.result.statistics.reducedChi2,
       logLikelihood: f.result.statistics.logLikelihood,
       aic: f.result.statistics.aic,
-      deltaAic: f.result.statistics.aic - minAic,
-      weight: raw[i] / total,
+      deltaAic: aic.delta[i],
+      weight: aic.weight[i],
       bic: f.result.statistics.bic,
-      deltaBic: f.result.statistics.bic - minBic,
+      deltaBic: bic.delta[i],
     }))
     .sort((a, b) => a.aic - b.aic);
 }
