@@ -49,8 +49,8 @@ export async function main(): Promise<void> {
     const refMedian = quantile(reference, 0.5);
     process.stdout.write(`B4 display-to-drawn explorer ${displayMs} ms (8192 points, includes view creation)\n`);
     process.stdout.write(`B4 plotly alone (precomputed curves): median ${refMedian.toFixed(2)} ms\n`);
-    process.stdout.write(`B4 ratio median / frame budget ${(median / FRAME_BUDGET_MS).toFixed(2)}, ` +
-      `median / plotly alone ${(median / refMedian).toFixed(2)}\n`);
+    process.stdout.write(`B4 ratio median / frame budget ${(median / FRAME_BUDGET_MS).toPrecision(2)}, ` +
+      `median / plotly alone ${(median / refMedian).toPrecision(2)}\n`);
     process.stdout.write(`B4 slider-to-redraw median ${median.toFixed(2)} ms, p95 ${p95.toFixed(2)} ms (${POINTS} points)\n`);
   } finally {
     await browser.close();
