@@ -18,7 +18,7 @@ import type { Model } from "./model.js";
 import type { PointPattern } from "./pattern.js";
 import { detectorModel } from "./detector.js";
 import { directionSine, type SineResult } from "./geometry.js";
-import { sinc, sincWithSlope, type SincResult } from "./sinc.js";
+import { sincInto, type SincResult } from "./sinc.js";
 import { specs } from "./specs.js";
 import type { FarFieldOptions } from "./twoSlit.js";
 
@@ -39,15 +39,9 @@ export function twoSlitBroadbandPattern(options: { smallAngle?: boolean } = {}):
     directionSine(x - center, distance, smallAngle, geo);
     const s = geo.s;
     const beta = 0.5 * k * width * s;
-    let sincValue: number;
-    let sincSlope = 0;
-    if (g) {
-      sincWithSlope(beta, envelopeSinc);
-      sincValue = envelopeSinc.value;
-      sincSlope = envelopeSinc.slope;
-    } else {
-      sincValue = sinc(beta);
-    }
+    sincInto(beta, g !== null, envelopeSinc);
+    const sincValue = envelopeSinc.value;
+    const sincSlope = envelopeSinc.slope;
     const envelope = sincValue * sincValue;
     const pathLength = separation * s; // D (m)
     const q = sigmaK * pathLength;
@@ -128,15 +122,9 @@ export function twoSlitSpectrumPattern(spectrum: SpectrumTable, options: { small
       const k = ks[j]!;
       const w = ws[j]!;
       const beta = 0.5 * k * width * s;
-      let sincValue: number;
-      let sincSlope = 0;
-      if (g) {
-        sincWithSlope(beta, envelopeSinc);
-        sincValue = envelopeSinc.value;
-        sincSlope = envelopeSinc.slope;
-      } else {
-        sincValue = sinc(beta);
-      }
+      sincInto(beta, g !== null, envelopeSinc);
+      const sincValue = envelopeSinc.value;
+      const sincSlope = envelopeSinc.slope;
       const envelope = sincValue * sincValue;
       const gamma = k * separation * s + phase;
       const cosG = Math.cos(gamma);

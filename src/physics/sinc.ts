@@ -32,3 +32,16 @@ export function sincWithSlope(beta: number, out: SincResult): void {
   out.value = sb / beta;
   out.slope = (beta * Math.cos(beta) - sb) / (beta * beta);
 }
+
+/**
+ * Writes sinc(β) into `out.value` (β in rad); its slope too when `withSlope`, else slope 0.
+ * For loops that need the derivative only when a Jacobian is asked for.
+ */
+export function sincInto(beta: number, withSlope: boolean, out: SincResult): void {
+  if (withSlope) {
+    sincWithSlope(beta, out);
+  } else {
+    out.value = sinc(beta);
+    out.slope = 0;
+  }
+}
