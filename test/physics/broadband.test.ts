@@ -1,15 +1,9 @@
 import { describe, expect, it } from "vitest";
 import { getModel } from "../../src/physics/registry.js";
-import { paramVector, pixelPositions } from "../../src/physics/simulate.js";
+import { pixelPositions } from "../../src/physics/simulate.js";
+import { evaluate } from "./evaluateModel.js";
 
 const LAMBDA = 632.8e-9;
-
-function evaluate(id: string, values: Record<string, number>, x: Float64Array, options = {}): Float64Array {
-  const model = getModel(id, options);
-  const out = new Float64Array(x.length);
-  model.evaluate(x, paramVector(model, values), out);
-  return out;
-}
 
 /** A Gaussian spectrum in wavenumber k (σk from the FWHM Δλ as the model defines it), tabulated in wavelength. */
 function gaussianTable(centre: number, fwhm: number, rows: number): { wavelengths: number[]; weights: number[] } {

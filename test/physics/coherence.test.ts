@@ -1,15 +1,7 @@
 import { describe, expect, it } from "vitest";
-import { getModel } from "../../src/physics/registry.js";
-import { paramVector } from "../../src/physics/simulate.js";
 import { coherenceFromVisibility, intensityRatioFromVisibility, visibilityFromBeams } from "../../src/physics/coherence.js";
 import { hasScipy, python } from "./python.js";
-
-function evaluate(id: string, values: Record<string, number>, x: Float64Array): Float64Array {
-  const model = getModel(id);
-  const out = new Float64Array(x.length);
-  model.evaluate(x, paramVector(model, values), out);
-  return out;
-}
+import { evaluate } from "./evaluateModel.js";
 
 describe('getModel("coherence-disc")', () => {
   const values = { visibility: 1, diameter: 1e-3, sourceDistance: 2, wavelength: 550e-9 };

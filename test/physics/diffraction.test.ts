@@ -1,17 +1,10 @@
 import { describe, expect, it } from "vitest";
-import { getModel } from "../../src/physics/registry.js";
-import { paramVector, pixelPositions } from "../../src/physics/simulate.js";
+import { pixelPositions } from "../../src/physics/simulate.js";
 import { visibilityFromBeams } from "../../src/physics/coherence.js";
 import { fraunhoferIntensity, fresnelIntensity, type Slit } from "./apertureIntegrals.js";
+import { evaluate } from "./evaluateModel.js";
 
 const LAMBDA = 632.8e-9; // He–Ne line (common practice)
-
-function evaluate(id: string, values: Record<string, number>, x: Float64Array, options = {}): Float64Array {
-  const model = getModel(id, options);
-  const out = new Float64Array(x.length);
-  model.evaluate(x, paramVector(model, values), out);
-  return out;
-}
 
 function maxAbs(values: ArrayLike<number>): number {
   let m = 0;

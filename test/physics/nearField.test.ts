@@ -1,17 +1,10 @@
 import { describe, expect, it } from "vitest";
-import { getModel } from "../../src/physics/registry.js";
-import { paramVector, pixelPositions } from "../../src/physics/simulate.js";
+import { pixelPositions } from "../../src/physics/simulate.js";
 import { farFieldCheck, fresnelNumber } from "../../src/physics/formulas.js";
 import { fresnelIntensity, type Slit } from "./apertureIntegrals.js";
+import { evaluate } from "./evaluateModel.js";
 
 const LAMBDA = 632.8e-9; // He–Ne line (common practice)
-
-function evaluate(id: string, values: Record<string, number>, x: Float64Array, options = {}): Float64Array {
-  const model = getModel(id, options);
-  const out = new Float64Array(x.length);
-  model.evaluate(x, paramVector(model, values), out);
-  return out;
-}
 
 describe('getModel("two-slit-fresnel")', () => {
   it("equals a direct numerical Fresnel integral |(1/√(iλL)) ∫ exp(iπ(v − ξ)²/(λL)) dξ|² for N = 1, 2, 3 at Fresnel number ≈ 1.3", () => {
