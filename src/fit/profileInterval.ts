@@ -12,6 +12,9 @@ import { bestOf, prepareFit } from "./fitProfile.js";
 import { checkRefittable, objectiveScale, optionsFromResult } from "./refit.js";
 import type { FitOptions, FitResult, FitWarning } from "./types.js";
 
+/** Thrown inside the search when the caller cancels; turned into a warning at the top. */
+const CANCELLED = Symbol("cancelled");
+
 /** A profile-likelihood interval (ends in the parameter's SI unit). */
 export interface ProfileInterval {
   parameter: string;
@@ -63,6 +66,7 @@ export function profileInterval(result: FitResult, profile: Profile, model: Mode
     const prep = prepareFit(profile, model, { ...base, fix, start, bounds, free: (base.free ?? []).filter((f) => f !== name) });
     const outcome = bestOf(prep, [{}]);
     fits++;
+    if (outcome.reason === "cancelled") throw CANCELLED;
     prep.plan.free.forEach((j, i) => { starts[prep.plan.names[j]] = outcome.x[i]; });
     return (outcome.cost - best) / scale - threshold;
   };
@@ -103,7 +107,14 @@ export function profileInterval(result: FitResult, profile: Profile, model: Mode
     return (a * gb - b * ga) / (gb - ga);
   };
 
-  const lower = side(-1), upper = side(1);
+  let lower: { end: number; open: boolean }, upper: { end: number; open: boolean };
+  try {
+    lower = side(-1); upper = side(1);
+  } catch (error) {
+    if (error !== CANCELLED) throw error;
+    warnings.push({ code: "cancelled", parameter: name, message: "cancelled by the caller (signal.aborted); the interval is unknown" });
+    lower = { end: NaN, open: true }; upper = { end: NaN, open: true };
+  }
   return {
     parameter: name, unit: parameter.unit, value: parameter.value,
     lower: lower.end, upper: upper.end, openLower: lower.open, openUpper: upper.open,

@@ -46,6 +46,16 @@ describe("profileInterval(result, profile, model, name, level)", () => {
   });
 });
 
+describe("profileInterval(..., { signal })", () => {
+  it("returns NaN ends and a cancelled warning when signal.aborted is set", () => {
+    const profile = lineProfile();
+    const result = fitProfile(profile, line, { start: { a: 1, b: 1 }, sigmaAbsolute: true, noise: "gaussian" });
+    const interval = profileInterval(result, profile, line, "a", 0.68, { signal: { aborted: true } });
+    expect(Number.isNaN(interval.lower) && Number.isNaN(interval.upper)).toBe(true);
+    expect(interval.warnings.map((w) => w.code)).toContain("cancelled");
+  });
+});
+
 describe("profileInterval and bootstrap of a robust fit without σ", () => {
   it("refuse with InvalidArgumentError (σ was estimated from the residuals and a refit would not repeat it)", () => {
     const { x, y } = lineProfile();
