@@ -7,10 +7,9 @@
  * centre, with u(V) from the coefficient covariance (GUM §5.1.2). The order m = d sin θ/λ is the path difference in
  * wavelengths at the window centre (Hecht, Optics, §9.3).
  */
-import { InvalidArgumentError } from "../errors.js";
 import type { FitResult } from "../fit/types.js";
 import type { Profile } from "../profile.js";
-import { requireFitParameter } from "./fitParameters.js";
+import { fringeLayoutOf } from "./fitParameters.js";
 import { solveNormalEquations } from "./linearLeastSquares.js";
 
 /** Visibility measured around one fringe maximum. */
@@ -30,15 +29,7 @@ export interface LocalVisibility {
  * Feed the result to bandwidthFromVisibilityDecay to get a bandwidth from the raw profile.
  */
 export function localVisibilities(profile: Profile, fit: FitResult): LocalVisibility[] {
-  if (profile.x.length !== fit.model.length) {
-    throw new InvalidArgumentError("profile", `${profile.x.length} points`, `the profile the fit used (${fit.model.length} points)`);
-  }
-  const get = (name: string) => requireFitParameter(fit, name, "local visibilities").value;
-  const center = get("center");
-  const d = get("separation");
-  const lambda = get("wavelength");
-  const distance = get("distance");
-  const phase = fit.parameters.find((p) => p.name === "phase")?.value ?? 0;
+  const { center, separation: d, wavelength: lambda, distance, phase } = fringeLayoutOf(profile, fit, "local visibilities");
   const background = fit.parameters.find((p) => p.name === "background")?.value ?? 0;
   const slope = fit.parameters.find((p) => p.name === "backgroundSlope")?.value ?? 0;
   const x = profile.x;

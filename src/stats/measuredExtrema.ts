@@ -5,10 +5,9 @@
  * covariance (linear propagation, GUM §5.1.2), scaled by √(χ²/ν) when the local scatter
  * exceeds the weights.
  */
-import { InvalidArgumentError } from "../errors.js";
 import type { FitResult } from "../fit/types.js";
 import type { Profile } from "../profile.js";
-import { requireFitParameter } from "./fitParameters.js";
+import { fringeLayoutOf } from "./fitParameters.js";
 import { invertMatrix } from "./linearLeastSquares.js";
 import type { Calibration, DerivedQuantity } from "./quantity.js";
 
@@ -29,15 +28,7 @@ export interface Extremum {
  * a parabola of the wrong curvature are skipped.
  */
 export function measuredExtrema(profile: Profile, fit: FitResult, calibration: Calibration = {}): Extremum[] {
-  if (profile.x.length !== fit.model.length) {
-    throw new InvalidArgumentError("profile", `${profile.x.length} points`, `the profile the fit used (${fit.model.length} points)`);
-  }
-  const get = (name: string) => requireFitParameter(fit, name, "measured extrema").value;
-  const center = get("center");
-  const d = get("separation");
-  const lambda = get("wavelength");
-  const distance = get("distance");
-  const phase = fit.parameters.find((p) => p.name === "phase")?.value ?? 0;
+  const { center, separation: d, wavelength: lambda, distance, phase } = fringeLayoutOf(profile, fit, "measured extrema");
   const spacing = (lambda * distance) / d;
   const half = spacing / 6;
   const x = profile.x;
