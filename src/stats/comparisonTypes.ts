@@ -68,23 +68,12 @@ export interface ComparisonResult {
 
 /** Shape of `fringekit compare --json`. */
 export interface ComparisonJson {
-  ranking: {
+  /** The table's rows without the diagnostics, with the model id as `model`. */
+  ranking: (Pick<ModelComparisonRow, "label" | "converged" | "n" | "k" | "logLikelihood" | "chi2" | "reducedChi2" | "aic" | "aicc" | "bic" | "deltaAic" | "deltaBic" | "weight"> & {
     model: string;
-    label: string;
-    converged: boolean;
-    n: number;
-    k: number;
-    logLikelihood: number;
-    chi2: number;
-    reducedChi2: number;
-    aic: number;
-    aicc: number;
-    bic: number;
-    deltaAic: number;
-    deltaBic: number;
-    weight: number;
+    /** The residual diagnostics found structure (see residualDiagnostics). */
     residualsStructured: boolean;
-  }[];
+  })[];
   preferred: string;
   criterion: Criterion;
   tests: NestedTestResult[];
