@@ -10,6 +10,7 @@ export * from "./twoBeam.js";
 export * from "./broadband.js";
 export * from "./nearField.js";
 export * from "./coherence.js";
+export * from "./sourceModel.js";
 export * from "./formulas.js";
 export * from "./fresnelIntegrals.js";
 export * from "./bessel.js";

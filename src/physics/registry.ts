@@ -9,6 +9,7 @@ import { twoBeamModel } from "./twoBeam.js";
 import { twoSlitBroadbandModel, twoSlitSpectrumModel, type SpectrumTable } from "./broadband.js";
 import { nearFieldModel } from "./nearField.js";
 import { coherenceDiscModel, coherenceGaussianModel } from "./coherence.js";
+import { twoSlitSourceModel } from "./sourceModel.js";
 
 /** Options accepted by `getModel`; each model reads the ones it knows. */
 export interface ModelOptions {
@@ -56,6 +57,8 @@ const ENTRIES: Record<string, Entry> = {
     example: { spectrum: { wavelengths: [632.8e-9], weights: [1] } },
   },
   "two-slit-fresnel": { axis: "detector", create: (o) => nearFieldModel(o) },
+  "two-slit-disc-source": { axis: "detector", create: (o) => twoSlitSourceModel("disc", o) },
+  "two-slit-gaussian-source": { axis: "detector", create: (o) => twoSlitSourceModel("gaussian", o) },
   "coherence-disc": { axis: "separation", create: () => coherenceDiscModel() },
   "coherence-gaussian": { axis: "separation", create: () => coherenceGaussianModel() },
 };

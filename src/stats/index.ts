@@ -21,5 +21,4 @@ export * from "./farField.js";
 export * from "./sourceSize.js";
 export * from "./localVisibility.js";
 export * from "./derivedQuantities.js";
-export * from "./sourceModel.js";
 export * from "./jointSourceSize.js";

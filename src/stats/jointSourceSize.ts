@@ -8,7 +8,7 @@ import type { FitOptions } from "../fit/types.js";
 import type { Profile } from "../profile.js";
 import type { Calibration } from "./quantity.js";
 import { sourceSize } from "./sourceSize.js";
-import { SOURCE_SHAPES, twoSlitSourceModel, type SourceShape } from "./sourceModel.js";
+import { SOURCE_SHAPES, twoSlitSourceModel, type SourceShape } from "../physics/sourceModel.js";
 
 /** One raw profile of a coherence scan and the slit separation (m) it was taken with. */
 export interface ScanProfile {

@@ -2,10 +2,10 @@
 // models, and recovery of known truths from seeded simulations for the derived quantities.
 import { describe, expect, it } from "vitest";
 import { fitProfile } from "../../src/fit/index.js";
-import { getModel, paramVector, pixelPositions, simulateProfile } from "../../src/physics/index.js";
+import { getModel, paramVector, pixelPositions, simulateProfile, twoSlitSourceModel } from "../../src/physics/index.js";
 import {
   coherenceLength, coherenceScanProfile, compareFits, degreeOfCoherence, farFieldValidity, fitSourceSizeJointly, fringeGeometry, fringeMaxima,
-  sourceSize, twoSlitSourceModel,
+  sourceSize,
 } from "../../src/stats/index.js";
 import { seeded } from "./fakeFit.js";
 

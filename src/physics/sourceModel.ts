@@ -5,8 +5,9 @@
  * §10.4.2–10.4.3). Fitting several profiles taken at different slit separations jointly with the
  * size shared measures the source from the raw data. Derivatives are left to the fitter.
  */
-import type { Model, ParameterSpec } from "../physics/model.js";
-import { getModel } from "../physics/registry.js";
+import type { Model, ParameterSpec } from "./model.js";
+import { coherenceDiscModel, coherenceGaussianModel } from "./coherence.js";
+import { twoSlitModel, type FarFieldOptions } from "./twoSlit.js";
 
 /** Shapes of source the joint model knows, and the parameter that measures each. */
 export const SOURCE_SHAPES = { disc: "diameter", gaussian: "rmsSize" } as const;
@@ -16,12 +17,14 @@ export type SourceShape = keyof typeof SOURCE_SHAPES;
 /**
  * Model "two-slit-<shape>-source": two-slit parameters (visibility now means V0, the visibility
  * an ideal point source would give), then diameter or rmsSize (m) and sourceDistance (m, fixed by
- * default). Positions x in m on the detector, output in counts like "two-slit".
+ * default). Positions x in m on the detector, output in counts like "two-slit"; `options` as for
+ * "two-slit" (small-angle geometry, quadrature nodes). Registered as "two-slit-disc-source" and
+ * "two-slit-gaussian-source".
  * @example fitJoint(profiles.map((profile, i) => ({ profile, model: twoSlitSourceModel("disc"), fix: { separation: d[i] } })), ["diameter", "visibility"])
  */
-export function twoSlitSourceModel(shape: SourceShape): Model {
-  const pattern = getModel("two-slit");
-  const coherence = getModel(shape === "disc" ? "coherence-disc" : "coherence-gaussian");
+export function twoSlitSourceModel(shape: SourceShape, options: FarFieldOptions = {}): Model {
+  const pattern = twoSlitModel(options);
+  const coherence = shape === "disc" ? coherenceDiscModel() : coherenceGaussianModel();
   const sizeName = SOURCE_SHAPES[shape];
   const sizeSpec = coherence.parameters.find((p) => p.name === sizeName)!;
   const sourceDistanceSpec = coherence.parameters.find((p) => p.name === "sourceDistance")!;
