@@ -47,6 +47,10 @@ export interface KernelIdentity {
   implementationVersion: string;
 }
 
+/**
+ * The kernel side of one session: answers Jupyter shell/control requests over the wire
+ * protocol, runs code through the runtime and routes comm messages.
+ */
 export class FringekitKernel {
   readonly session = randomUUID();
   readonly comms: CommRegistry;

@@ -20,7 +20,7 @@ export function sinc(beta: number): number {
   return Math.sin(beta) / beta;
 }
 
-/** Writes sinc(β) and its derivative into `out` (one sin and one cos evaluation). */
+/** Writes sinc(β) and its derivative d sinc/dβ (per rad) into `out`, β in rad (one sin and one cos evaluation). */
 export function sincWithSlope(beta: number, out: SincResult): void {
   if (Math.abs(beta) < 1e-3) {
     const b2 = beta * beta;

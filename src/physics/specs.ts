@@ -9,6 +9,7 @@ export function specs(...names: SpecName[]): ParameterSpec[] {
   return names.map((name) => ({ ...SPECS[name] }));
 }
 
+/** The project-wide parameter names that have a shared spec (see DEVELOPERS.md conventions). */
 export type SpecName = keyof typeof SPECS;
 
 const SPECS = {

@@ -84,7 +84,7 @@ export function fitTable(result: FitResult, options: FitTableOptions = {}): Repo
   };
 }
 
-/** Fixed decimals with a typographic minus; "∞"/"NaN" spelled out. */
+/** `x` (any unit, printed as given) with `decimals` fixed decimals and a typographic minus; "∞"/"NaN" spelled out. */
 export function fixed(x: number, decimals: number): string {
   if (Number.isNaN(x)) return "NaN";
   if (!Number.isFinite(x)) return x > 0 ? "∞" : "−∞";

@@ -59,7 +59,7 @@ export function roundSignificant(value: number, significant: number): string {
   return fixedAt(value, exponent - (significant - 1));
 }
 
-/** Print `value` rounded to the decimal place 10^lastDigit, as a plain decimal string. */
+/** Print `value` (any unit, printed as given) rounded to the decimal place 10^lastDigit, as a plain decimal string. */
 export function fixedAt(value: number, lastDigit: number): string {
   if (lastDigit <= 0) {
     const places = -lastDigit;

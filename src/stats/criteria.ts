@@ -43,7 +43,7 @@ export function fitCriteria(fit: FitResult): InformationCriteria {
 
 /**
  * Differences to the smallest value and Akaike weights for a list of criterion values
- * (AIC, AICc or BIC). Infinite values get Δ = ∞ and weight 0.
+ * (AIC, AICc or BIC; dimensionless). Infinite values get Δ = ∞ and weight 0; weights sum to 1.
  */
 export function akaikeWeights(values: readonly number[]): { delta: number[]; weight: number[] } {
   if (values.length === 0) throw new InvalidArgumentError("values", values, "at least one criterion value");

@@ -25,7 +25,7 @@ export function normalTwoSided(z: number): number {
   return z === 0 ? 1 : regularizedGammaQ(0.5, 0.5 * z * z);
 }
 
-/** Standard normal density φ(z) = exp(−z²/2)/√(2π). */
+/** Standard normal density φ(z) = exp(−z²/2)/√(2π), z in standard deviations (per standard deviation). */
 export function normalPdf(z: number): number {
   return Math.exp(-0.5 * z * z) / Math.sqrt(2 * Math.PI);
 }

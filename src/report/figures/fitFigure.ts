@@ -60,7 +60,7 @@ export function fitFigure(profile: Profile, result: FitResult, options: FitFigur
   return withMimeBundle({ data, layout, config: { ...STATIC_CONFIG } });
 }
 
-/** Half-range of a residual axis: the largest |r| with 10 % room, at least 3 (so noise looks like noise). */
+/** Half-range of a residual axis (normalised residuals, in σ): the largest |r| with 10 % room, at least 3 (so noise looks like noise). */
 export function symmetricLimit(values: (number | null)[]): number {
   let largest = 0;
   for (const v of values) if (v !== null) largest = Math.max(largest, Math.abs(v));
