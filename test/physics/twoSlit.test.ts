@@ -13,7 +13,7 @@ describe("twoSlitModel", () => {
     const x = new Float64Array([-3e-3, 0.37e-3, 1.234e-3, 9e-3]);
     const out = new Float64Array(x.length);
     model.evaluate(x, params, out);
-    // direct transcription of the formula of PROBLEMS.md B1, evaluated independently here
+    // the Fraunhofer two-slit formula (Born & Wolf, Principles of Optics, §8.6), written out here independently of the model code
     x.forEach((xi, i) => {
       const u = xi - B1.center;
       const s = u / Math.hypot(u, B1.distance);
