@@ -23,6 +23,10 @@ describe("farFieldValidity", () => {
     expect(check.warning).toMatch(/two-slit is a far-field model used outside its range .*fit "two-slit-fresnel" instead/);
     const nearModel = farFieldValidity({ ...fit, modelId: "two-slit-fresnel" });
     expect(nearModel.warning).toBeUndefined();
+    // the source-size models are two-slit far-field patterns too
+    for (const modelId of ["two-slit-disc-source", "two-slit-gaussian-source"]) {
+      expect(farFieldValidity({ ...fit, modelId }).warning).toMatch(new RegExp(`^${modelId} is a far-field model used outside its range`));
+    }
   });
 });
 
