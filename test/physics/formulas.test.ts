@@ -39,6 +39,7 @@ describe("closed-form helpers", () => {
     expect(() => missingOrders(1e-4, 2e-4, 5)).toThrow(/invalid width/);
   });
   it("coherenceLengthFromBandwidth(632.8 nm, 1 nm) = λ²/Δλ = 0.400 mm; coherence time = l/c", () => {
+    // l_c = λ²/Δλ (common practice); (632.8e-9)²/1e-9 = 4.0043584e-4 m by hand; c = 299 792 458 m/s exactly (SI definition)
     expect(coherenceLengthFromBandwidth(632.8e-9, 1e-9)).toBeCloseTo(4.0043584e-4, 10);
     expect(coherenceTimeFromBandwidth(632.8e-9, 1e-9)).toBeCloseTo(4.0043584e-4 / 299792458, 20);
     expect(() => coherenceLengthFromBandwidth(632.8e-9, 0)).toThrow(/invalid bandwidth: 0/);

@@ -9,7 +9,7 @@ const LAMBDA = 632.8e-9; // He–Ne line (common practice)
 describe('getModel("two-slit-fresnel")', () => {
   it("equals a direct numerical Fresnel integral |(1/√(iλL)) ∫ exp(iπ(v − ξ)²/(λL)) dξ|² for N = 1, 2, 3 at Fresnel number ≈ 1.3", () => {
     const a = 0.2e-3, d = 0.5e-3, L = 0.05, center = -0.07e-3;
-    expect(fresnelNumber(a, LAMBDA, L)).toBeCloseTo(1.264, 3);
+    expect(fresnelNumber(a, LAMBDA, L)).toBeCloseTo(1.264, 3); // (0.2 mm)²/(632.8 nm · 5 cm) = 1.2642, by hand
     const x = pixelPositions(161, 15e-6, center);
     for (const N of [1, 2, 3]) {
       const got = evaluate("two-slit-fresnel", { amplitude: 1, center, separation: d, width: a, slits: N, wavelength: LAMBDA, distance: L }, x, { pixelNodes: 1 });
@@ -74,7 +74,7 @@ describe("fresnelNumber / farFieldCheck", () => {
   it("farFieldCheck accepts the B1 bench (d = 0.5 mm, a = 0.1 mm, L = 1 m) and rejects L = 5 cm", () => {
     const b1 = farFieldCheck({ width: 0.1e-3, separation: 0.5e-3, slits: 2, wavelength: LAMBDA, distance: 1 });
     expect(b1.valid).toBe(true);
-    expect(b1.offsetNumber).toBeCloseTo(0.079, 3);
+    expect(b1.offsetNumber).toBeCloseTo(0.079, 3); // (N−1)·d·a/(λL) = 0.5 mm · 0.1 mm/(632.8 nm · 1 m) = 0.0790, by hand
     const close = farFieldCheck({ width: 0.1e-3, separation: 0.5e-3, slits: 2, wavelength: LAMBDA, distance: 0.05 });
     expect(close.valid).toBe(false);
     expect(close.message).toMatch(/two-slit-fresnel/);

@@ -41,7 +41,7 @@ describe("compareFits", () => {
   it("compareFits(fits, { nested }) runs the likelihood-ratio and F tests on asserted pairs", () => {
     const result = compareFits([far, near], { profile, nested: [["two-slit", "two-slit-fresnel"]] });
     expect(result.tests).toHaveLength(1);
-    expect(result.tests[0].likelihoodRatio).toBe(400);
+    expect(result.tests[0].likelihoodRatio).toBe(400); // 2 (ln L_near − ln L_far) = 2 (−1300 + 1500), by hand (Wilks 1938)
     expect(result.tests[0].nesting).toBe("asserted");
     expect(result.verdict).toMatch(/likelihood ratio 400\.0, p = < 1e-12/);
     expect(() => compareFits([far, near], { nested: [["two-slit", "nope"]] })).toThrow(/labels of the compared fits: two-slit, two-slit-fresnel/);

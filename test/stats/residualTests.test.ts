@@ -29,6 +29,7 @@ describe("residual tests", () => {
     const f = 1 / 0.6e-3; // fringe period 0.6 mm
     const white = periodicityAt(x, noise, f);
     expect(white.pValue).toBeGreaterThan(0.01);
+    // white noise: the variance-normalised periodogram averages 1 (Scargle 1982); ±30 % allows for the estimate's scatter (common practice)
     expect(white.noiseFloor).toBeGreaterThan(0.7);
     expect(white.noiseFloor).toBeLessThan(1.3);
     const wavy = noise.map((v, i) => v + 0.3 * Math.cos(2 * Math.PI * f * x[i] + 1));
@@ -86,6 +87,6 @@ describe("residualDiagnostics", () => {
     expect(d.periodicity).toBeUndefined();
     expect(d.reasons.join(" ")).toMatch(/too few sign runs/);
     expect(d.reasons.join(" ")).toMatch(/lag-1 autocorrelation/);
-    expect(d.durbinWatson).toBeLessThan(1.5);
+    expect(d.durbinWatson).toBeLessThan(1.5); // DW ≈ 2(1 − ρ1): well below 2 for positively correlated residuals (Durbin & Watson 1950)
   });
 });
