@@ -6,9 +6,9 @@ import { InvalidArgumentError } from "../../errors.js";
 import type { Profile } from "../../profile.js";
 import type { LabelledFit } from "../comparisonTable.js";
 import { plainArray, plotlyText, STATIC_CONFIG, withMimeBundle, type FigureSpec } from "./figureSpec.js";
-import { symmetricLimit } from "./fitFigure.js";
-import { axisStyle, baseLayout, resolveSize, type FigureSize } from "./journal.js";
-import { GUIDE, seriesStyle } from "./palette.js";
+import { residualPanelAxes, symmetricLimit } from "./fitFigure.js";
+import { baseLayout, resolveSize, type FigureSize } from "./journal.js";
+import { seriesStyle } from "./palette.js";
 import { profileTraces } from "./profileTraces.js";
 
 /**
@@ -50,11 +50,7 @@ export function comparisonFigure(profile: Profile, fits: readonly LabelledFit[],
   });
   const layout = {
     ...baseLayout(size, { kind: "comparison", models: fits.map((f) => f.result.modelId), xUnit: axis.unit }),
-    xaxis: axisStyle("", { domain: [0, 1], anchor: "y", matches: "x2", showticklabels: false, title: undefined }),
-    yaxis: axisStyle(yAxis.title, { domain: [0.36, 1], anchor: "x", rangemode: "tozero" }),
-    xaxis2: axisStyle(axis.title, { domain: [0, 1], anchor: "y2" }),
-    yaxis2: axisStyle("(<i>I</i>−<i>f</i>)/<i>σ</i>", { domain: [0, 0.28], anchor: "x2", range: [-limit, limit], nticks: 5 }),
-    shapes: [{ type: "line", xref: "x2 domain", x0: 0, x1: 1, yref: "y2", y0: 0, y1: 0, line: { color: GUIDE, width: 0.75 } }],
+    ...residualPanelAxes(axis.title, yAxis.title, limit, { dataFrom: 0.36, residualsTo: 0.28, residualTicks: 5 }),
   };
   return withMimeBundle({ data, layout, config: { ...STATIC_CONFIG } });
 }

@@ -51,13 +51,33 @@ export function fitFigure(profile: Profile, result: FitResult, options: FitFigur
   const limit = symmetricLimit(residuals);
   const layout = {
     ...baseLayout(size, { kind: "fit", modelId: result.modelId, xUnit: axis.unit }),
-    xaxis: axisStyle("", { domain: [0, 1], anchor: "y", matches: "x2", showticklabels: false, title: undefined }),
-    yaxis: axisStyle(yAxis.title, { domain: [0.3, 1], anchor: "x", rangemode: "tozero" }),
-    xaxis2: axisStyle(axis.title, { domain: [0, 1], anchor: "y2" }),
-    yaxis2: axisStyle("(<i>I</i>−<i>f</i>)/<i>σ</i>", { domain: [0, 0.22], anchor: "x2", range: [-limit, limit], nticks: 4 }),
-    shapes: [{ type: "line", xref: "x2 domain", x0: 0, x1: 1, yref: "y2", y0: 0, y1: 0, line: { color: GUIDE, width: 0.75 } }],
+    ...residualPanelAxes(axis.title, yAxis.title, limit, { dataFrom: 0.3, residualsTo: 0.22, residualTicks: 4 }),
   };
   return withMimeBundle({ data, layout, config: { ...STATIC_CONFIG } });
+}
+
+/** Where the two panels of a data-over-residuals figure sit (fractions of the plot height). */
+export interface ResidualPanelSplit {
+  /** Bottom of the data panel. */
+  dataFrom: number;
+  /** Top of the residual panel. */
+  residualsTo: number;
+  /** Tick count on the residual axis. */
+  residualTicks: number;
+}
+
+/**
+ * Axes and zero line of a figure with data on top and normalised residuals (in σ, ±limit)
+ * below, sharing the position axis (titles are plotly text, already escaped).
+ */
+export function residualPanelAxes(xTitle: string, yTitle: string, limit: number, split: ResidualPanelSplit): Record<string, unknown> {
+  return {
+    xaxis: axisStyle("", { domain: [0, 1], anchor: "y", matches: "x2", showticklabels: false, title: undefined }),
+    yaxis: axisStyle(yTitle, { domain: [split.dataFrom, 1], anchor: "x", rangemode: "tozero" }),
+    xaxis2: axisStyle(xTitle, { domain: [0, 1], anchor: "y2" }),
+    yaxis2: axisStyle("(<i>I</i>−<i>f</i>)/<i>σ</i>", { domain: [0, split.residualsTo], anchor: "x2", range: [-limit, limit], nticks: split.residualTicks }),
+    shapes: [{ type: "line", xref: "x2 domain", x0: 0, x1: 1, yref: "y2", y0: 0, y1: 0, line: { color: GUIDE, width: 0.75 } }],
+  };
 }
 
 /** Half-range of a residual axis (normalised residuals, in σ): the largest |r| with 10 % room, at least 3 (so noise looks like noise). */
