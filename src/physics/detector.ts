@@ -72,8 +72,43 @@ export function detectorModel(pattern: PointPattern, options: DetectorOptions = 
 
   const singleOffset = new Float64Array([0]);
   const singleWeight = new Float64Array([1]);
-  const grad = new Float64Array(np + 1);
   const sum = new Float64Array(np);
+  const stride = np + 1;
+  const one = new Float64Array(stride);
+  // Quadrature nodes are evaluated in blocks of whole pixels through the pattern's bulk methods
+  // (or a per-node loop for patterns without them): scratch sized for ~1024 nodes, made once.
+  const nodesPerPixel = pixelNodes * blurNodes;
+  const blockPixels = Math.max(1, Math.floor(1024 / nodesPerPixel));
+  const blockNodes = blockPixels * nodesPerPixel;
+  const positions = new Float64Array(blockNodes);
+  const values = new Float64Array(blockNodes);
+  const grads = new Float64Array(blockNodes * stride);
+  const valuesAt = pattern.valuesAt?.bind(pattern)
+    ?? ((at: Float64Array, count: number, into: Float64Array): void => {
+      for (let t = 0; t < count; t++) into[t] = pattern.value(at[t]!);
+    });
+  const valueGradsAt = pattern.valueGradsAt?.bind(pattern)
+    ?? ((at: Float64Array, count: number, into: Float64Array, g: Float64Array): void => {
+      for (let t = 0; t < count; t++) {
+        into[t] = pattern.valueGrad(at[t]!, one);
+        g.set(one, t * stride);
+      }
+    });
+
+  // Node positions of pixels [first, first + count), pixel-major, then Legendre, then Hermite
+  // node; the same arithmetic as a direct loop, so the results do not depend on the block size.
+  const fillPositions = (x: Float64Array, first: number, count: number, offsets: Float64Array, width: number, sigma: number, blurCount: number): number => {
+    let t = 0;
+    for (let i = first; i < first + count; i++) {
+      const xi = x[i]!;
+      for (let k = 0; k < offsets.length; k++) {
+        const position = xi + offsets[k]! * width;
+        if (blurCount === 1) positions[t++] = position;
+        else for (let j = 0; j < blurCount; j++) positions[t++] = position + blurOffsets[j]! * sigma;
+      }
+    }
+    return t;
+  };
 
   const evaluate = (x: Float64Array, params: Float64Array, out: Float64Array): void => {
     pattern.prepare(params);
@@ -84,23 +119,24 @@ export function detectorModel(pattern: PointPattern, options: DetectorOptions = 
     // a zero-width pixel is a point sample: one node of weight 1
     const offsets = width === 0 ? singleOffset : pixelOffsets;
     const weights = width === 0 ? singleWeight : pixelWeights;
-    for (let i = 0; i < x.length; i++) {
-      const xi = x[i]!;
-      let total = 0;
-      for (let k = 0; k < offsets.length; k++) {
-        const position = xi + offsets[k]! * width;
-        const weight = weights[k]!;
-        if (sigma === 0) {
-          total += weight * pattern.value(position);
-        } else {
-          let blurred = 0;
-          for (let j = 0; j < blurNodes; j++) {
-            blurred += blurWeights[j]! * pattern.value(position + blurOffsets[j]! * sigma);
+    const blurCount = sigma === 0 ? 1 : blurNodes;
+    for (let first = 0; first < x.length; first += blockPixels) {
+      const count = Math.min(blockPixels, x.length - first);
+      valuesAt(positions, fillPositions(x, first, count, offsets, width, sigma, blurCount), values);
+      let t = 0;
+      for (let i = first; i < first + count; i++) {
+        let total = 0;
+        for (let k = 0; k < offsets.length; k++) {
+          if (blurCount === 1) {
+            total += weights[k]! * values[t++]!;
+          } else {
+            let blurred = 0;
+            for (let j = 0; j < blurCount; j++) blurred += blurWeights[j]! * values[t++]!;
+            total += weights[k]! * blurred;
           }
-          total += weight * blurred;
         }
+        out[i] = background + slope * x[i]! + total;
       }
-      out[i] = background + slope * xi + total;
     }
   };
 
@@ -115,32 +151,37 @@ export function detectorModel(pattern: PointPattern, options: DetectorOptions = 
     // which is 0 by symmetry, so one node of weight 1 is exact
     const offsets = width === 0 ? singleOffset : pixelOffsets;
     const weights = width === 0 ? singleWeight : pixelWeights;
-    for (let i = 0; i < x.length; i++) {
-      const xi = x[i]!;
-      let total = 0;
-      let dWidth = 0;
-      let dSigma = 0;
-      sum.fill(0);
-      for (let k = 0; k < offsets.length; k++) {
-        const offset = offsets[k]!;
-        const position = xi + offset * width;
-        for (let j = 0; j < blurCount; j++) {
-          const blurOffset = sigma === 0 ? 0 : blurOffsets[j]!;
-          const weight = sigma === 0 ? weights[k]! : weights[k]! * blurWeights[j]!;
-          total += weight * pattern.valueGrad(position + blurOffset * sigma, grad);
-          for (let m = 0; m < np; m++) sum[m] += weight * grad[m]!;
-          const slopeX = weight * grad[np]!;
-          dWidth += slopeX * offset;
-          dSigma += slopeX * blurOffset;
+    for (let first = 0; first < x.length; first += blockPixels) {
+      const count = Math.min(blockPixels, x.length - first);
+      valueGradsAt(positions, fillPositions(x, first, count, offsets, width, sigma, blurCount), values, grads);
+      let t = 0;
+      for (let i = first; i < first + count; i++) {
+        const xi = x[i]!;
+        let total = 0;
+        let dWidth = 0;
+        let dSigma = 0;
+        for (let m = 0; m < np; m++) sum[m] = 0;
+        for (let k = 0; k < offsets.length; k++) {
+          const offset = offsets[k]!;
+          for (let j = 0; j < blurCount; j++, t++) {
+            const blurOffset = sigma === 0 ? 0 : blurOffsets[j]!;
+            const weight = sigma === 0 ? weights[k]! : weights[k]! * blurWeights[j]!;
+            const g = t * stride;
+            total += weight * values[t]!;
+            for (let m = 0; m < np; m++) sum[m] += weight * grads[g + m]!;
+            const slopeX = weight * grads[g + np]!;
+            dWidth += slopeX * offset;
+            dSigma += slopeX * blurOffset;
+          }
         }
+        const row = i * p;
+        for (let m = 0; m < np; m++) jac[row + m] = sum[m]!;
+        jac[row + iBackground] = 1;
+        jac[row + iSlope] = xi;
+        jac[row + iPixel] = dWidth;
+        jac[row + iBlur] = dSigma;
+        if (out) out[i] = background + slope * xi + total;
       }
-      const row = i * p;
-      for (let m = 0; m < np; m++) jac[row + m] = sum[m]!;
-      jac[row + iBackground] = 1;
-      jac[row + iSlope] = xi;
-      jac[row + iPixel] = dWidth;
-      jac[row + iBlur] = dSigma;
-      if (out) out[i] = background + slope * xi + total;
     }
   };
 

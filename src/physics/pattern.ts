@@ -24,4 +24,15 @@ export interface PointPattern {
    * ∂I/∂x (per m) to grad[parameters.length]. Integer parameters get 0.
    */
   valueGrad(x: number, grad: Float64Array): number;
+  /**
+   * Optional bulk form of `value`: values[t] = value(positions[t]) for t < count (positions in m).
+   * detectorModel then makes one call per block of quadrature nodes instead of one per node: a
+   * per-node call through its shared call site is not inlined and boxes every returned number.
+   */
+  valuesAt?(positions: Float64Array, count: number, values: Float64Array): void;
+  /**
+   * Optional bulk form of `valueGrad`: values[t] as above and the gradient of position t in
+   * grads[t·(parameters.length + 1) …], laid out as valueGrad's `grad` (∂I/∂x, per m, last).
+   */
+  valueGradsAt?(positions: Float64Array, count: number, values: Float64Array, grads: Float64Array): void;
 }

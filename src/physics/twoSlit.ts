@@ -33,6 +33,78 @@ export function twoSlitPattern(options: { smallAngle?: boolean } = {}): PointPat
   const envelopeSinc: SincResult = { value: 0, slope: 0 };
   let amplitude = 0, center = 0, separation = 0, width = 0, visibility = 0, phase = 0;
   let wavelength = 0, distance = 0, k = 0;
+  // The per-node loops live in the bulk methods (one call per block of nodes, nothing boxed);
+  // value/valueGrad at a single position go through them with one-element scratch arrays.
+  // The direction sine and sinc are written out in the loops, with the prepared parameters in
+  // locals, so the optimiser keeps every intermediate in registers (same formulas as
+  // geometry.ts and sinc.ts, including sinc's series below |β| < 1e-3).
+  const one = new Float64Array(1), oneValue = new Float64Array(1);
+  const valuesAt = (positions: Float64Array, count: number, values: Float64Array): void => {
+    const c = center, L = distance, L2 = distance * distance, kHalfWidth = 0.5 * k * width, kSep = k * separation;
+    const A = amplitude, V = visibility, phi = phase;
+    for (let t = 0; t < count; t++) {
+      const u = positions[t]! - c;
+      const s = smallAngle ? u / L : u / Math.sqrt(u * u + L2);
+      const beta = kHalfWidth * s;
+      let sincValue: number;
+      if (Math.abs(beta) < 1e-3) {
+        const b2 = beta * beta;
+        sincValue = 1 - (b2 / 6) * (1 - b2 / 20);
+      } else {
+        sincValue = Math.sin(beta) / beta;
+      }
+      values[t] = A * (sincValue * sincValue) * (1 + V * Math.cos(kSep * s + phi));
+    }
+  };
+  // Gradient of node t in grads[9t … 9t + 8]; one sin/cos pair for the envelope, one for the fringes.
+  const valueGradsAt = (positions: Float64Array, count: number, values: Float64Array, grads: Float64Array): void => {
+    const c = center, L = distance, L2 = distance * distance, kHalfWidth = 0.5 * k * width, kSep = k * separation;
+    const A = amplitude, V = visibility, phi = phase, lambda = wavelength, halfK = 0.5 * k;
+    for (let t = 0; t < count; t++) {
+      const u = positions[t]! - c;
+      let s: number, dsdu: number, dsdL: number;
+      if (smallAngle) {
+        s = u / L; dsdu = 1 / L; dsdL = -u / L2;
+      } else {
+        const r2 = u * u + L2;
+        const r = Math.sqrt(r2);
+        const inv3 = 1 / (r2 * r);
+        s = u / r; dsdu = L2 * inv3; dsdL = -u * L * inv3;
+      }
+      const beta = kHalfWidth * s;
+      let sincValue: number, sincSlope: number;
+      if (Math.abs(beta) < 1e-3) {
+        const b2 = beta * beta;
+        sincValue = 1 - (b2 / 6) * (1 - b2 / 20);
+        sincSlope = -(beta / 3) * (1 - b2 / 10);
+      } else {
+        const sb = Math.sin(beta);
+        sincValue = sb / beta;
+        sincSlope = (beta * Math.cos(beta) - sb) / (beta * beta);
+      }
+      const envelope = sincValue * sincValue;
+      const path = kSep * s; // optical phase difference without φ
+      const gamma = path + phi;
+      const cosG = Math.cos(gamma);
+      const sinG = Math.sin(gamma);
+      const fringe = 1 + V * cosG;
+      const dBeta = A * 2 * sincValue * sincSlope * fringe; // ∂I/∂β
+      const dGamma = -A * envelope * V * sinG; // ∂I/∂γ
+      const dS = dBeta * kHalfWidth + dGamma * kSep; // ∂I/∂s
+      const dU = dS * dsdu;
+      const o = 9 * t;
+      values[t] = A * envelope * fringe;
+      grads[o] = envelope * fringe;
+      grads[o + 1] = -dU;
+      grads[o + 2] = dGamma * k * s;
+      grads[o + 3] = dBeta * halfK * s;
+      grads[o + 4] = A * envelope * cosG;
+      grads[o + 5] = dGamma;
+      grads[o + 6] = -(dBeta * beta + dGamma * path) / lambda;
+      grads[o + 7] = dS * dsdL;
+      grads[o + 8] = dU;
+    }
+  };
   return {
     id: "two-slit",
     description: "Far-field two-slit pattern: sinc² envelope × (1 + V cos) fringes",
@@ -43,39 +115,17 @@ export function twoSlitPattern(options: { smallAngle?: boolean } = {}): PointPat
       k = (2 * Math.PI) / wavelength;
     },
     value(x) {
-      directionSine(x - center, distance, smallAngle, geo);
-      const envelopeValue = sinc(0.5 * k * width * geo.s);
-      const envelope = envelopeValue * envelopeValue;
-      return amplitude * envelope * (1 + visibility * Math.cos(k * separation * geo.s + phase));
+      one[0] = x;
+      valuesAt(one, 1, oneValue);
+      return oneValue[0]!;
     },
     valueGrad(x, g) {
-      directionSine(x - center, distance, smallAngle, geo);
-      const s = geo.s;
-      const beta = 0.5 * k * width * s;
-      sincWithSlope(beta, envelopeSinc);
-      const sincValue = envelopeSinc.value;
-      const envelope = sincValue * sincValue;
-      const path = k * separation * s; // optical phase difference without φ
-      const gamma = path + phase;
-      const cosG = Math.cos(gamma);
-      const sinG = Math.sin(gamma);
-      const fringe = 1 + visibility * cosG;
-      const value = amplitude * envelope * fringe;
-      const dBeta = amplitude * 2 * sincValue * envelopeSinc.slope * fringe; // ∂I/∂β
-      const dGamma = -amplitude * envelope * visibility * sinG; // ∂I/∂γ
-      const dS = dBeta * 0.5 * k * width + dGamma * k * separation; // ∂I/∂s
-      const dU = dS * geo.dsdu;
-      g[0] = envelope * fringe;
-      g[1] = -dU;
-      g[2] = dGamma * k * s;
-      g[3] = dBeta * 0.5 * k * s;
-      g[4] = amplitude * envelope * cosG;
-      g[5] = dGamma;
-      g[6] = -(dBeta * beta + dGamma * path) / wavelength;
-      g[7] = dS * geo.dsdL;
-      g[8] = dU;
-      return value;
+      one[0] = x;
+      valueGradsAt(one, 1, oneValue, g);
+      return oneValue[0]!;
     },
+    valuesAt,
+    valueGradsAt,
   };
 }
 
