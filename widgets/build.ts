@@ -61,7 +61,51 @@ export async function buildWidgetBundles(extra: ExtraEntry[] = []): Promise<stri
   return written;
 }
 
+/** Where the JupyterLab 4 prebuilt extension is written. */
+export const labExtensionDir = path.join(distDir, "labextension");
+
+/**
+ * Build the JupyterLab 4 prebuilt extension with @jupyterlab/builder: the plugin is bundled by
+ * esbuild with @jupyter-widgets/base left as an import, then webpack module federation shares
+ * it as a singleton (JupyterLab's widget manager provides it). Output: widgets/dist/labextension/.
+ */
+export async function buildLabExtension(): Promise<string> {
+  const { spawnSync } = await import("node:child_process");
+  const { mkdir, rm, writeFile, copyFile } = await import("node:fs/promises");
+  const { createRequire } = await import("node:module");
+  const source = path.join(distDir, "labextension-src");
+  await rm(source, { recursive: true, force: true });
+  await rm(labExtensionDir, { recursive: true, force: true });
+  await mkdir(path.join(source, "lib"), { recursive: true });
+  await build({ ...common, entryPoints: [path.join(widgetsDir, "src/entry/labPlugin.ts")], format: "esm", outfile: path.join(source, "lib/index.js"), external: ["@jupyter-widgets/base"] });
+  const require = createRequire(import.meta.url);
+  const baseVersion = (require("@jupyter-widgets/base/package.json") as { version: string }).version;
+  const { MODULE_NAME, MODULE_VERSION } = await import("./src/version.js");
+  await writeFile(path.join(source, "package.json"), JSON.stringify({
+    name: MODULE_NAME,
+    version: MODULE_VERSION,
+    description: "fringekit widgets for JupyterLab 4",
+    license: "MIT",
+    main: "lib/index.js",
+    keywords: ["jupyter", "jupyterlab", "jupyterlab-extension", "widgets"],
+    dependencies: { "@jupyter-widgets/base": `^${baseVersion}` },
+    jupyterlab: {
+      extension: true,
+      outputDir: "../labextension",
+      sharedPackages: { "@jupyter-widgets/base": { bundled: false, singleton: true } },
+    },
+  }, null, 2));
+  const core = path.join(distDir, "labextension-core");
+  await mkdir(core, { recursive: true });
+  await copyFile(path.join(widgetsDir, "jupyterlab/core-package.json"), path.join(core, "package.json"));
+  const cli = require.resolve("@jupyterlab/builder/lib/build-labextension.js");
+  const run = spawnSync(process.execPath, [cli, "--core-path", core, source], { encoding: "utf8", cwd: path.dirname(widgetsDir) });
+  if (run.status !== 0) throw new Error(`build-labextension failed (exit ${run.status}):\n${run.stdout}\n${run.stderr}`);
+  return labExtensionDir;
+}
+
 if (process.argv[1] && path.resolve(process.argv[1]) === fileURLToPath(import.meta.url)) {
   const files = await buildWidgetBundles();
+  if (process.argv.includes("--lab")) files.push(await buildLabExtension());
   for (const file of files) process.stdout.write(`${path.relative(process.cwd(), file)}\n`);
 }

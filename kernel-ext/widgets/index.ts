@@ -11,3 +11,4 @@ export { fitSummary } from "./fitSummary.js";
 export { exportNotebookHtml, notebookHtml, rendererBundlePath } from "./exportHtml.js";
 export { widgetStateFromMessages } from "./widgetState.js";
 export type { WidgetStateDocument, CommMessage } from "./widgetState.js";
+export { installLabExtension, jupyterDataDir, labExtensionSource } from "./installLab.js";
