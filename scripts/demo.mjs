@@ -12,9 +12,9 @@ const out = join(root, "out");
 const jupyterData = join(root, ".jupyter-local");
 const python = "/usr/bin/python3";
 const chromium = "/usr/bin/chromium";
-// Debian packages: nbclient runs the notebooks, nbconvert writes static HTML copies, Chromium
-// renders the figures (in Liberation Sans when Arial is not installed).
-const debianPackages = ["python3-nbclient", "python3-nbformat", "python3-jupyter-client", "python3-nbconvert", "chromium", "fonts-liberation"];
+// Debian packages: nbclient runs the notebooks, Chromium renders the figures (in Liberation Sans
+// when Arial is not installed). nbconvert is optional: only the fallback HTML copies need it.
+const debianPackages = ["python3-nbclient", "python3-nbformat", "python3-jupyter-client", "chromium", "fonts-liberation"];
 const outputFolders = ["notebooks", "html", "figures", "results"];
 const steps = 6;
 let step = 0;
@@ -62,15 +62,15 @@ if (!existsSync(installedLock) || statSync(installedLock).mtimeMs < statSync(joi
   say("  node_modules is up to date");
 }
 
-stage("Jupyter (nbclient, nbformat, jupyter_client, nbconvert) and Chromium");
-const probeJupyter = () => spawnSync(python, ["-c", "import nbclient, nbformat, jupyter_client, nbconvert"], { stdio: "ignore" }).status === 0;
+stage("Jupyter (nbclient, nbformat, jupyter_client) and Chromium");
+const probeJupyter = () => spawnSync(python, ["-c", "import nbclient, nbformat, jupyter_client"], { stdio: "ignore" }).status === 0;
 const ready = () => existsSync(python) && probeJupyter() && existsSync(chromium);
 if (!ready()) {
   const canInstall = process.getuid?.() === 0 && existsSync("/usr/bin/apt-get");
   if (!canInstall) {
     fail(`missing: ${[!existsSync(python) || !probeJupyter() ? `Python packages for ${python}` : "", !existsSync(chromium) ? chromium : ""].filter(Boolean).join(" and ")}.\n` +
       `Install them with\n  sudo apt-get install -y ${debianPackages.join(" ")}\n` +
-      `(or, for ${python}, the pip packages nbclient nbformat jupyter_client nbconvert) and run npm run demo again`);
+      `(or, for ${python}, the pip packages nbclient nbformat jupyter_client) and run npm run demo again`);
   }
   say(`  installing ${debianPackages.join(" ")}`);
   const env = { ...process.env, DEBIAN_FRONTEND: "noninteractive" };
@@ -136,7 +136,9 @@ if (existsSync(exporter)) {
     say(`  the widget HTML exporter failed: ${error instanceof Error ? error.message : String(error)}`);
   }
 }
-if (!exported) {
+if (!exported && spawnSync(python, ["-c", "import nbconvert"], { stdio: "ignore" }).status !== 0) {
+  say("  no HTML copies: static HTML needs nbconvert (sudo apt-get install python3-nbconvert)");
+} else if (!exported) {
   say("  writing static HTML with nbconvert instead (no live widgets or plots)");
   const executedNotebooks = readdirSync(join(out, "notebooks")).filter((name) => name.endsWith(".ipynb")).map((name) => join(out, "notebooks", name));
   const status = run(python, ["-m", "nbconvert", "--to", "html", "--log-level", "WARN", "--output-dir", join(out, "html"), ...executedNotebooks], { env: jupyterEnv });
