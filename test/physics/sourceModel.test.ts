@@ -1,6 +1,7 @@
 import { describe, expect, it } from "vitest";
 import { getModel, listModels } from "../../src/physics/registry.js";
-import { pixelPositions } from "../../src/physics/simulate.js";
+import { paramVector, pixelPositions } from "../../src/physics/simulate.js";
+import { checkJacobian } from "./checkJacobian.js";
 import { hasScipy, python } from "./python.js";
 import { evaluate } from "./evaluateModel.js";
 
@@ -41,5 +42,22 @@ describe('getModel("two-slit-gaussian-source")', () => {
     const names = info.parameters.map((p) => p.name);
     expect(names.slice(0, getModel("two-slit").parameters.length)).toEqual(getModel("two-slit").parameters.map((p) => p.name));
     expect(names.slice(-2)).toEqual(["rmsSize", "sourceDistance"]);
+  });
+});
+
+describe('getModel("two-slit-<shape>-source").jacobian(x, params, jac, out)', () => {
+  const x = pixelPositions(241, 25e-6, 0.013e-3);
+  // v = πDd/(λR): 1.4 (first lobe) and 5 (past the first zero of J1 at 3.83, A&S Table 9.5)
+  for (const [label, diameter] of [["first lobe", 0.4e-3], ["second lobe", 1.46e-3]] as const) {
+    it(`"two-slit-disc-source" matches central differences for every parameter (${label}, exact and small-angle)`, () => {
+      for (const smallAngle of [false, true]) {
+        const model = getModel("two-slit-disc-source", { smallAngle });
+        checkJacobian(model, paramVector(model, { ...base, diameter, sourceDistance: 1, pixelWidth: 20e-6, blur: 12e-6 }), x, { typical: { diameter: 1e-3 } });
+      }
+    });
+  }
+  it('"two-slit-gaussian-source" matches central differences for every parameter', () => {
+    const model = getModel("two-slit-gaussian-source");
+    checkJacobian(model, paramVector(model, { ...base, rmsSize: 0.15e-3, sourceDistance: 1.2, backgroundSlope: 2e3, pixelWidth: 20e-6 }), x);
   });
 });
