@@ -3,7 +3,7 @@
  *
  * Method: Levenberg–Marquardt with Moré's diagonal scaling D = running maximum of the Jacobian
  * column norms (Moré 1978, "The Levenberg–Marquardt algorithm: implementation and theory",
- * Lecture Notes in Math. 630), the damping update of Nielsen (1999, IMM-REP-1999-05,
+ * in Numerical Analysis, Springer LNM 630), the damping update of Nielsen (1999, IMM-REP-1999-05,
  * λ ← λ·max(1/3, 1 − (2ρ − 1)³) on success, λ ← λν, ν ← 2ν on failure) and optional
  * geodesic acceleration (Transtrum & Sethna 2012, arXiv:1201.5885).
  *
@@ -18,7 +18,7 @@
  * value, so the normal equations (and their squared condition number) are never formed. The
  * iteration loop allocates nothing: every buffer lives in the workspace made at the start.
  */
-import { applyQt, backSubstitute, householderQr } from "./linalg.js";
+import { applyQt, applyQtColumns, backSubstitute, householderQr, householderQrColumns } from "./linalg.js";
 import type { StopReason } from "./types.js";
 
 /** A nonlinear least-squares problem: n residuals in p parameters. */
@@ -124,6 +124,7 @@ function levenbergMarquardt(problem: LeastSquaresProblem, start: Float64Array, o
   const x = new Float64Array(p), xTrial = new Float64Array(p), step = new Float64Array(p);
   const r = new Float64Array(n), rTrial = new Float64Array(n), rWork = new Float64Array(n), rWork2 = new Float64Array(n);
   let jac = new Float64Array(n * p), jacTrial = new Float64Array(problem.jacobianWritesResiduals ? n * p : 0);
+  // qr: the Jacobian's QR factors stored column by column (contiguous columns of length n)
   const qr = new Float64Array(n * p), qtr = new Float64Array(n);
   const rdiag = new Float64Array(p), tau = new Float64Array(p);
   const small = new Float64Array(2 * p * p), smallRhs = new Float64Array(2 * p), smallDiag = new Float64Array(p), smallTau = new Float64Array(p);
@@ -182,23 +183,23 @@ function levenbergMarquardt(problem: LeastSquaresProblem, start: Float64Array, o
         if (!Number.isFinite(v)) { v = 0; jac[row + j] = 0; nonFiniteJacobian = true; }
         grad[j] += v * ri;
         colNorm[j] += v * v;
+        qr[j * n + i] = v;
       }
     }
     for (let j = 0; j < p; j++) {
       colNorm[j] = Math.sqrt(colNorm[j]);
       diag[j] = Math.max(diag[j], colNorm[j]);
     }
-    qr.set(jac);
-    householderQr(qr, n, p, rdiag, tau);
+    householderQrColumns(qr, n, p, rdiag, tau);
     qtr.set(r);
-    applyQt(qr, n, p, tau, qtr);
+    applyQtColumns(qr, n, p, tau, qtr);
   };
   // Solves min ‖[R; √λ·D] s + [top; 0]‖ on the free set into `out` (held parameters get 0).
   const dampedSolve = (lambda: number, top: Float64Array, out: Float64Array): boolean => {
     const root = Math.sqrt(lambda);
     for (let a = 0; a < p; a++) {
       for (let b = 0; b < p; b++) {
-        small[a * p + b] = held[b] || b < a ? 0 : b === a ? rdiag[a] : qr[a * p + b];
+        small[a * p + b] = held[b] || b < a ? 0 : b === a ? rdiag[a] : qr[b * n + a];
         small[(p + a) * p + b] = b === a ? (held[a] ? 1 : root * diag[a]) : 0;
       }
       smallRhs[a] = -top[a];
@@ -218,9 +219,20 @@ function levenbergMarquardt(problem: LeastSquaresProblem, start: Float64Array, o
     ({ x: Float64Array.from(x), residuals: Float64Array.from(r), jacobian: Float64Array.from(jac), cost, reason,
       iterations, evaluations, jacobianEvaluations, nonFiniteJacobian, nonFiniteTrials });
 
-  let cost = evaluate(x, r);
-  if (!Number.isFinite(cost)) return finish("invalid-start", cost);
-  computeJacobian();
+  let cost: number;
+  if (problem.jacobian && problem.jacobianWritesResiduals) {
+    // residuals and Jacobian of the start in one model call
+    evaluations++; jacobianEvaluations++;
+    problem.jacobian(x, jac, r);
+    cost = 0;
+    for (let i = 0; i < n; i++) cost += r[i] * r[i];
+    if (!Number.isFinite(cost)) { jac.fill(0); return finish("invalid-start", cost); }
+    processJacobian();
+  } else {
+    cost = evaluate(x, r);
+    if (!Number.isFinite(cost)) return finish("invalid-start", cost);
+    computeJacobian();
+  }
   for (let j = 0; j < p; j++) if (diag[j] === 0) diag[j] = 1;
   let lambda = options.initialDamping ?? 1e-3;
   let nu = 2;
@@ -263,7 +275,7 @@ function levenbergMarquardt(problem: LeastSquaresProblem, start: Float64Array, o
           for (let j = 0; j < p; j++) jv += jac[row + j] * step[j];
           rWork2[i] = (2 / hStep) * ((rWork[i] - r[i]) / hStep - jv);
         }
-        applyQt(qr, n, p, tau, rWork2);
+        applyQtColumns(qr, n, p, tau, rWork2);
         if (dampedSolve(lambda, rWork2, accel)) {
           let na = 0, nv = 0;
           for (let j = 0; j < p; j++) { na += (diag[j] * accel[j]) ** 2; nv += (diag[j] * step[j]) ** 2; }
@@ -305,7 +317,7 @@ function levenbergMarquardt(problem: LeastSquaresProblem, start: Float64Array, o
     let predicted = 0;
     for (let a = 0; a < p; a++) {
       let rs = rdiag[a] * step[a];
-      for (let b = a + 1; b < p; b++) rs += qr[a * p + b] * step[b];
+      for (let b = a + 1; b < p; b++) rs += qr[b * n + a] * step[b];
       rStep[a] = rs;
       predicted -= 2 * qtr[a] * rs + rs * rs;
     }

@@ -174,3 +174,46 @@ export function backSubstitute(a: Float64Array, p: number, rdiag: Float64Array, 
   }
   return true;
 }
+
+/**
+ * Householder QR like {@link householderQr}, for a matrix stored column by column
+ * (column j is a[j·m … j·m + m − 1]), so every inner loop runs over contiguous memory; this is
+ * the layout the solver uses for its tall n × p Jacobian. On return R's strict upper part is at
+ * a[j·m + i] (i < j), `rdiag` holds its diagonal and the Householder vectors lie below it.
+ */
+export function householderQrColumns(a: Float64Array, m: number, p: number, rdiag: Float64Array, tau: Float64Array): void {
+  for (let k = 0; k < p; k++) {
+    const ck = k * m;
+    let norm = 0;
+    for (let i = k; i < m; i++) norm += a[ck + i] * a[ck + i];
+    norm = Math.sqrt(norm);
+    if (norm === 0) { rdiag[k] = 0; tau[k] = 0; continue; }
+    const akk = a[ck + k];
+    const alpha = akk > 0 ? -norm : norm;
+    a[ck + k] = akk - alpha;
+    const vnorm2 = norm * norm - 2 * alpha * akk + alpha * alpha;
+    const t = vnorm2 > 0 ? 2 / vnorm2 : 0;
+    tau[k] = t;
+    for (let j = k + 1; j < p; j++) {
+      const cj = j * m;
+      let s = 0;
+      for (let i = k; i < m; i++) s += a[ck + i] * a[cj + i];
+      s *= t;
+      for (let i = k; i < m; i++) a[cj + i] -= s * a[ck + i];
+    }
+    rdiag[k] = alpha;
+  }
+}
+
+/** Applies Qᵀ from {@link householderQrColumns} to a vector b (length m) in place. */
+export function applyQtColumns(a: Float64Array, m: number, p: number, tau: Float64Array, b: Float64Array): void {
+  for (let k = 0; k < p; k++) {
+    const t = tau[k];
+    if (t === 0) continue;
+    const ck = k * m;
+    let s = 0;
+    for (let i = k; i < m; i++) s += a[ck + i] * b[i];
+    s *= t;
+    for (let i = k; i < m; i++) b[i] -= s * a[ck + i];
+  }
+}

@@ -84,10 +84,13 @@ export function buildProblem(prep: PreparedFit): LeastSquaresProblem {
   if (model.jacobian) {
     const fullJac = new Float64Array(n * P), expansion = new Float64Array(P * q), scratch = new Float64Array(n);
     const modelJacobian = model.jacobian.bind(model);
+    // Only the free parameters' columns are used (all of them when ties mix columns).
+    const columns = new Uint8Array(P).fill(plan.ties.length > 0 ? 1 : 0);
+    for (const j of plan.free) columns[j] = 1;
     problem.jacobianWritesResiduals = true;
     problem.jacobian = (theta, jac, out) => {
       expandParameters(plan, theta, full);
-      modelJacobian(x, full, fullJac, f);
+      modelJacobian(x, full, fullJac, f, columns);
       noiseResiduals(noise, y, f, out ?? scratch, drdf);
       if (plan.ties.length === 0) {
         for (let i = 0; i < n; i++) {

@@ -140,8 +140,14 @@ export function detectorModel(pattern: PointPattern, options: DetectorOptions = 
     }
   };
 
-  const jacobian = (x: Float64Array, params: Float64Array, jac: Float64Array, out?: Float64Array): void => {
+  // Optical columns to accumulate (all unless a `columns` mask drops some), made once per call.
+  const wanted = new Int32Array(np);
+  const jacobian = (x: Float64Array, params: Float64Array, jac: Float64Array, out?: Float64Array, columns?: Uint8Array): void => {
     pattern.prepare(params);
+    let nWanted = 0;
+    for (let m = 0; m < np; m++) if (!columns || columns[m]) wanted[nWanted++] = m;
+    // ∂P/∂x is needed only for the pixel-width and blur columns
+    const wantSlopeX = !columns || columns[iPixel] !== 0 || columns[iBlur] !== 0;
     const background = params[iBackground]!;
     const slope = params[iSlope]!;
     const width = params[iPixel]!;
@@ -168,10 +174,12 @@ export function detectorModel(pattern: PointPattern, options: DetectorOptions = 
             const weight = sigma === 0 ? weights[k]! : weights[k]! * blurWeights[j]!;
             const g = t * stride;
             total += weight * values[t]!;
-            for (let m = 0; m < np; m++) sum[m] += weight * grads[g + m]!;
-            const slopeX = weight * grads[g + np]!;
-            dWidth += slopeX * offset;
-            dSigma += slopeX * blurOffset;
+            for (let w = 0; w < nWanted; w++) { const m = wanted[w]!; sum[m] += weight * grads[g + m]!; }
+            if (wantSlopeX) {
+              const slopeX = weight * grads[g + np]!;
+              dWidth += slopeX * offset;
+              dSigma += slopeX * blurOffset;
+            }
           }
         }
         const row = i * p;

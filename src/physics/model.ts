@@ -42,6 +42,9 @@ export interface Model {
    * Analytic partial derivatives. `jac` is row-major n × p: jac[i * p + j] = ∂I(x_i)/∂params[j].
    * Also writes the intensity to `out` when given (cheap, shares work).
    * Absent when the model has no analytic derivatives (the fitter then differentiates numerically).
+   * @param columns optional mask, length p: where columns[j] is 0 the caller does not need column j
+   *   (e.g. a fixed parameter); a model may then skip its work and write 0 there. Models that
+   *   ignore the mask stay correct.
    */
-  jacobian?(x: Float64Array, params: Float64Array, jac: Float64Array, out?: Float64Array): void;
+  jacobian?(x: Float64Array, params: Float64Array, jac: Float64Array, out?: Float64Array, columns?: Uint8Array): void;
 }
