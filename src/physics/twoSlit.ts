@@ -12,8 +12,7 @@
 import type { Model } from "./model.js";
 import type { PointPattern } from "./pattern.js";
 import { detectorModel, type DetectorOptions } from "./detector.js";
-import { directionSine, type SineResult } from "./geometry.js";
-import { sinc, sincWithSlope, type SincResult } from "./sinc.js";
+import { sinCosInto } from "./sincos.js";
 import { specs } from "./specs.js";
 
 /** Options of the far-field models. */
@@ -29,8 +28,6 @@ export interface FarFieldOptions extends DetectorOptions {
  */
 export function twoSlitPattern(options: { smallAngle?: boolean } = {}): PointPattern {
   const smallAngle = options.smallAngle ?? false;
-  const geo: SineResult = { s: 0, dsdu: 0, dsdL: 0 };
-  const envelopeSinc: SincResult = { value: 0, slope: 0 };
   let amplitude = 0, center = 0, separation = 0, width = 0, visibility = 0, phase = 0;
   let wavelength = 0, distance = 0, k = 0;
   // The per-node loops live in the bulk methods (one call per block of nodes, nothing boxed);
@@ -56,52 +53,69 @@ export function twoSlitPattern(options: { smallAngle?: boolean } = {}): PointPat
       values[t] = A * (sincValue * sincValue) * (1 + V * Math.cos(kSep * s + phi));
     }
   };
-  // Gradient of node t in grads[9t … 9t + 8]; one sin/cos pair for the envelope, one for the fringes.
+  // Per-node scratch of the gradient kernel, grown on demand (the detector passes ≤ ~1024 nodes).
+  let size = 0;
+  let sines = new Float64Array(0), dsdus = new Float64Array(0), dsdLs = new Float64Array(0);
+  let betas = new Float64Array(0), gammas = new Float64Array(0);
+  let sinB = new Float64Array(0), cosB = new Float64Array(0), sinG = new Float64Array(0), cosG = new Float64Array(0);
+  const reserve = (count: number): void => {
+    if (count <= size) return;
+    size = Math.max(count, 1024);
+    [sines, dsdus, dsdLs, betas, gammas, sinB, cosB, sinG, cosG] = Array.from({ length: 9 }, () => new Float64Array(size));
+  };
+  // Gradient of node t in grads[9t … 9t + 8]. Three passes: geometry and phases; sin and cos
+  // of β and γ with one shared argument reduction each (sinCosInto); then values and gradients.
   const valueGradsAt = (positions: Float64Array, count: number, values: Float64Array, grads: Float64Array): void => {
+    reserve(count);
     const c = center, L = distance, L2 = distance * distance, kHalfWidth = 0.5 * k * width, kSep = k * separation;
     const A = amplitude, V = visibility, phi = phase, lambda = wavelength, halfK = 0.5 * k;
     for (let t = 0; t < count; t++) {
       const u = positions[t]! - c;
-      let s: number, dsdu: number, dsdL: number;
+      let s: number;
       if (smallAngle) {
-        s = u / L; dsdu = 1 / L; dsdL = -u / L2;
+        s = u / L; dsdus[t] = 1 / L; dsdLs[t] = -u / L2;
       } else {
         const r2 = u * u + L2;
         const r = Math.sqrt(r2);
         const inv3 = 1 / (r2 * r);
-        s = u / r; dsdu = L2 * inv3; dsdL = -u * L * inv3;
+        s = u / r; dsdus[t] = L2 * inv3; dsdLs[t] = -u * L * inv3;
       }
-      const beta = kHalfWidth * s;
+      sines[t] = s;
+      betas[t] = kHalfWidth * s;
+      gammas[t] = kSep * s + phi;
+    }
+    sinCosInto(betas, count, sinB, cosB);
+    sinCosInto(gammas, count, sinG, cosG);
+    for (let t = 0; t < count; t++) {
+      const s = sines[t]!, beta = betas[t]!;
       let sincValue: number, sincSlope: number;
       if (Math.abs(beta) < 1e-3) {
         const b2 = beta * beta;
         sincValue = 1 - (b2 / 6) * (1 - b2 / 20);
         sincSlope = -(beta / 3) * (1 - b2 / 10);
       } else {
-        const sb = Math.sin(beta);
+        const sb = sinB[t]!;
         sincValue = sb / beta;
-        sincSlope = (beta * Math.cos(beta) - sb) / (beta * beta);
+        sincSlope = (beta * cosB[t]! - sb) / (beta * beta);
       }
       const envelope = sincValue * sincValue;
       const path = kSep * s; // optical phase difference without φ
-      const gamma = path + phi;
-      const cosG = Math.cos(gamma);
-      const sinG = Math.sin(gamma);
-      const fringe = 1 + V * cosG;
+      const cosGamma = cosG[t]!;
+      const fringe = 1 + V * cosGamma;
       const dBeta = A * 2 * sincValue * sincSlope * fringe; // ∂I/∂β
-      const dGamma = -A * envelope * V * sinG; // ∂I/∂γ
+      const dGamma = -A * envelope * V * sinG[t]!; // ∂I/∂γ
       const dS = dBeta * kHalfWidth + dGamma * kSep; // ∂I/∂s
-      const dU = dS * dsdu;
+      const dU = dS * dsdus[t]!;
       const o = 9 * t;
       values[t] = A * envelope * fringe;
       grads[o] = envelope * fringe;
       grads[o + 1] = -dU;
       grads[o + 2] = dGamma * k * s;
       grads[o + 3] = dBeta * halfK * s;
-      grads[o + 4] = A * envelope * cosG;
+      grads[o + 4] = A * envelope * cosGamma;
       grads[o + 5] = dGamma;
       grads[o + 6] = -(dBeta * beta + dGamma * path) / lambda;
-      grads[o + 7] = dS * dsdL;
+      grads[o + 7] = dS * dsdLs[t]!;
       grads[o + 8] = dU;
     }
   };
