@@ -26,11 +26,11 @@ export function compareCommand(words: readonly string[]): CommandOutput {
     fits.push(fitProfile(loaded.profile, model, settings));
     fitOptions.push({ ...settings });
   }
-  const comparison = compareFits(fits.map((fit) => ({ fit, profile: loaded.profile })), { profile: loaded.profile });
+  const comparison = compareFits(fits.map((fit, i) => ({ fit, label: ids[i]!, profile: loaded.profile })), { profile: loaded.profile });
   const json = comparisonJson(comparison);
   const text = args.flags.has("json")
     ? `${JSON.stringify(json, null, 2)}\n`
-    : `${tableToText(comparisonTable(fits.map((result, i) => ({ label: ids[i]!, result })), { verdict: comparison.verdict, notes: loaded.warnings }))}\n`;
+    : `${tableToText(comparisonTable(comparison, { verdict: comparison.verdict, notes: loaded.warnings }))}\n`;
   const out = args.values.get("out");
   // A .json output is the versioned results file that `fringekit replay` re-runs.
   const document = (): string => stringifyResults(comparisonDocument(loaded.profile, fits.map((result, i) => ({ label: ids[i]!, result, fitOptions: fitOptions[i]! })), { verdict: comparison.verdict }));

@@ -5,7 +5,8 @@
  */
 import { InvalidArgumentError } from "../errors.js";
 import type { FitResult } from "../fit/types.js";
-import { akaikeWeights } from "../stats/criteria.js";
+import { compareFits } from "../stats/compareFits.js";
+import type { ComparisonResult, Criterion } from "../stats/comparisonTypes.js";
 import type { NestedTestResult } from "../stats/nested.js";
 import { fixed } from "./fitTable.js";
 import type { ReportTable, ReportTableRow } from "./table.js";
@@ -30,19 +31,23 @@ export interface ComparisonTableOptions {
 export interface ComparisonRow {
   label: string;
   modelId: string;
+  /** False for a fit that did not converge: Δ = ∞ and weight 0. */
+  converged: boolean;
   k: number;
   reducedChi2: number;
   logLikelihood: number;
   aic: number;
   deltaAic: number;
+  /** Weight under the ranking criterion (Akaike weight by default). */
   weight: number;
   bic: number;
   deltaBic: number;
 }
 
 /**
- * AIC/BIC ranking of fits to the same data, best (lowest AIC) first; Δ and Akaike weights
- * from stats' `akaikeWeights` (the same arithmetic `compareFits` uses).
+ * AIC/BIC ranking of fits to the same data, best first: the rows of stats' `compareFits`
+ * (criteria recomputed from ln L, k and n; fits that did not converge get Δ = ∞, weight 0
+ * and go last), so the table and the verdict rank alike.
  * Refuses fits with different point counts or noise models: their likelihoods are not comparable.
  */
 export function rankFits(fits: readonly LabelledFit[]): ComparisonRow[] {
@@ -57,54 +62,65 @@ export function rankFits(fits: readonly LabelledFit[]): ComparisonRow[] {
       );
     }
   }
-  // Δ and weights come from stats (one implementation of the criteria arithmetic); the
-  // values ranked are the ones the fits report, which the table shows beside them.
-  const aic = akaikeWeights(fits.map((f) => f.result.statistics.aic));
-  const bic = akaikeWeights(fits.map((f) => f.result.statistics.bic));
-  return fits
-    .map((f, i) => ({
-      label: f.label,
-      modelId: f.result.modelId,
-      k: f.result.statistics.nFree,
-      reducedChi2: f.result.statistics.reducedChi2,
-      logLikelihood: f.result.statistics.logLikelihood,
-      aic: f.result.statistics.aic,
-      deltaAic: aic.delta[i],
-      weight: aic.weight[i],
-      bic: f.result.statistics.bic,
-      deltaBic: bic.delta[i],
-    }))
-    .sort((a, b) => a.aic - b.aic);
+  return comparisonRows(compareFits(fits.map((f) => ({ fit: f.result, label: f.label }))));
 }
 
-/** Build the comparison table (one row per fit, best first). */
-export function comparisonTable(fits: readonly LabelledFit[], options: ComparisonTableOptions = {}): ReportTable {
-  const ranking = rankFits(fits);
+/** The table rows of a `compareFits` result, in its order (best first). Criteria dimensionless. */
+export function comparisonRows(comparison: ComparisonResult): ComparisonRow[] {
+  return comparison.rows.map((r) => ({
+    label: r.label,
+    modelId: r.modelId,
+    converged: r.converged,
+    k: r.k,
+    reducedChi2: r.reducedChi2,
+    logLikelihood: r.logLikelihood,
+    aic: r.aic,
+    deltaAic: r.deltaAic,
+    weight: r.weight,
+    bic: r.bic,
+    deltaBic: r.deltaBic,
+  }));
+}
+
+/**
+ * Build the comparison table (one row per fit, best first) from labelled fits or from a
+ * `compareFits` result (then the table shows exactly the ranking its verdict speaks of).
+ */
+export function comparisonTable(fits: readonly LabelledFit[] | ComparisonResult, options: ComparisonTableOptions = {}): ReportTable {
+  const comparison = Array.isArray(fits) ? undefined : (fits as ComparisonResult);
+  const ranking = comparison ? comparisonRows(comparison) : rankFits(fits as readonly LabelledFit[]);
+  const criterion = comparison?.criterion ?? "aic";
   const rows: ReportTableRow[] = ranking.map((r) => ({
     cells: [
-      r.label,
+      r.converged ? r.label : `${r.label} (not converged)`,
       String(r.k),
       fixed(r.reducedChi2, 3),
       fixed(r.logLikelihood, 1),
       fixed(r.aic, 1),
       fixed(r.deltaAic, 1),
-      r.weight < 0.001 ? "< 0.001" : r.weight.toFixed(3),
+      r.weight === 0 ? "0" : r.weight < 0.001 ? "< 0.001" : r.weight.toFixed(3),
       fixed(r.bic, 1),
       fixed(r.deltaBic, 1),
     ],
   }));
-  const notes = [`${fits.length} fits of the same ${fits[0].result.statistics.n} points, ${fits[0].result.noise} noise model; best AIC first.`];
+  const n = comparison ? comparison.rows[0].n : (fits as readonly LabelledFit[])[0].result.statistics.n;
+  const noise = comparison ? comparison.noise : (fits as readonly LabelledFit[])[0].result.noise;
+  const name = CRITERION_NAMES[criterion];
+  const notes = [`${ranking.length} fits of the same ${n} points, ${noise} noise model; best ${name} first.`];
+  if (ranking.some((r) => !r.converged)) notes.push("Fits that did not converge are listed last with weight 0.");
   for (const t of options.tests ?? []) notes.push(testNote(t));
   if (options.verdict) notes.push(options.verdict);
   notes.push(...(options.notes ?? []));
   return {
     caption: options.caption ?? "Model comparison",
-    columns: ["Model", "k", "χ²/ν", "ln L", "AIC", "ΔAIC", "Akaike weight", "BIC", "ΔBIC"],
+    columns: ["Model", "k", "χ²/ν", "ln L", "AIC", "ΔAIC", criterion === "aic" ? "Akaike weight" : `${name} weight`, "BIC", "ΔBIC"],
     align: ["l", "r", "r", "r", "r", "r", "r", "r", "r"],
     rows,
     notes,
   };
 }
+
+const CRITERION_NAMES: Record<Criterion, string> = { aic: "AIC", aicc: "AICc", bic: "BIC" };
 
 /** One line for a nested-model test: likelihood ratio (Wilks 1938) and F test, with p-values. */
 export function testNote(t: NestedTestResult): string {

@@ -3,6 +3,7 @@
  * and offers a MIME bundle for rich display in the notebook.
  */
 import type { FitResult } from "../fit/types.js";
+import type { ComparisonResult } from "../stats/comparisonTypes.js";
 import { comparisonTable, type ComparisonTableOptions, type LabelledFit } from "./comparisonTable.js";
 import { fitTable, type FitTableOptions } from "./fitTable.js";
 import { quantityTable, type QuantityRow, type QuantityTableOptions } from "./quantityTable.js";
@@ -49,8 +50,8 @@ export function fitReport(result: FitResult, options: FitTableOptions = {}): Tab
   return new TableReport(fitTable(result, options));
 }
 
-/** The comparison report of several fits of the same data (see comparisonTable). */
-export function comparisonReport(fits: readonly LabelledFit[], options: ComparisonTableOptions = {}): TableReport {
+/** The comparison report of several fits of the same data, or of a compareFits result (see comparisonTable). */
+export function comparisonReport(fits: readonly LabelledFit[] | ComparisonResult, options: ComparisonTableOptions = {}): TableReport {
   return new TableReport(comparisonTable(fits, options));
 }
 

@@ -45,7 +45,7 @@ export function makeFitResult(overrides: Partial<FitResult> = {}): FitResult {
     covarianceScaled: false,
     statistics: {
       n, nFree: k, dof: n - k, chi2: 58.3, reducedChi2: 58.3 / (n - k),
-      objective: 58.1, logLikelihood: -301.25, aic: 616.5, aicc: 618.8, bic: 631.6,
+      objective: 58.1, logLikelihood: -301.25, aic: 616.5, aicc: 618.5, bic: 631.6,
     },
     warnings: [],
     model: new Float64Array(n).map((_, i) => 150 + 100 * i),

@@ -5,7 +5,8 @@ import { join } from "node:path";
 import { describe, expect, it } from "vitest";
 import { escapeHtml, escapeLatex, escapeMarkdown } from "../../src/report/escape.js";
 import { comparisonReport, fitReport, quantityReport } from "../../src/report/tableReport.js";
-import { rankFits, testNote } from "../../src/report/comparisonTable.js";
+import { comparisonTable, rankFits, testNote } from "../../src/report/comparisonTable.js";
+import { compareFits } from "../../src/stats/compareFits.js";
 import { HOSTILE, makeFitResult } from "./fixtures.js";
 
 const PDFLATEX = "/usr/bin/pdflatex";
@@ -108,7 +109,11 @@ describe("fitReport(result, options)", () => {
 
 describe("comparisonReport(fits, options)", () => {
   const a = makeFitResult();
-  const b = makeFitResult({ modelId: "two-slit-fresnel", statistics: { ...a.statistics, aic: 612.5, bic: 630.0, nFree: 8 } });
+  // ln L = −298.25 with k = 8 of n = 64: AIC = 596.5 + 16 = 612.5, BIC = 596.5 + 8 ln 64 (hand-checked).
+  const b = makeFitResult({
+    modelId: "two-slit-fresnel",
+    statistics: { ...a.statistics, nFree: 8, dof: 56, logLikelihood: -298.25, aic: 612.5, aicc: 615.1, bic: 596.5 + 8 * Math.log(64) },
+  });
   it("rankFits orders by AIC with Akaike weights exp(-Δ/2)/Σ (Burnham & Anderson 2002, §2.9; hand-checked)", () => {
     const rows = rankFits([{ label: "far", result: a }, { label: "near", result: b }]);
     expect(rows.map((r) => r.label)).toEqual(["near", "far"]);
@@ -116,7 +121,20 @@ describe("comparisonReport(fits, options)", () => {
     // weights 1/(1+e^-2) = 0.880797 and e^-2/(1+e^-2) = 0.119203 (hand-checked)
     expect(rows[0].weight).toBeCloseTo(0.880797, 6);
     expect(rows[1].weight).toBeCloseTo(0.119203, 6);
-    expect(rows[1].deltaBic).toBeCloseTo(1.6, 12);
+    // ΔBIC = (602.5 + 7 ln 64) − (596.5 + 8 ln 64) = 6 − ln 64 (hand-checked)
+    expect(rows[1].deltaBic).toBeCloseTo(6 - Math.log(64), 12);
+  });
+  it("rankFits gives a fit that did not converge weight 0 and the last place, as compareFits does", () => {
+    // The unconverged fit has the lowest AIC; counting it would give it weight 0.88 (see above).
+    const stuck = { ...b, converged: false, reason: "max-evaluations" as const };
+    const rows = rankFits([{ label: "far", result: a }, { label: "near", result: stuck }]);
+    expect(rows.map((r) => [r.label, r.converged, r.weight])).toEqual([["far", true, 1], ["near", false, 0]]);
+    const verdict = compareFits([{ fit: a, label: "far" }, { fit: stuck, label: "near" }]);
+    expect(verdict.preferred).toBe(rows[0].label);
+    const table = comparisonTable(verdict);
+    expect(table.rows.map((r) => ("cells" in r ? r.cells[0] : r.section))).toEqual(["far", "near (not converged)"]);
+    const second = table.rows[1];
+    expect("cells" in second ? second.cells[6] : undefined).toBe("0");
   });
   it("rankFits refuses fits of different point counts or noise models", () => {
     const other = makeFitResult({ noise: "gaussian" });
