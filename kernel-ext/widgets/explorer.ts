@@ -55,6 +55,19 @@ export interface ExplorerOptions {
   title?: string;
 }
 
+/** Detector models the browser can build by id alone (models needing data, e.g. a spectrum, are left out). */
+function browserModelIds(current: string): string[] {
+  const ids = listModels().filter((m) => m.axis === "detector").map((m) => m.id).filter((id) => {
+    try {
+      getModel(id);
+      return true;
+    } catch {
+      return false;
+    }
+  });
+  return ids.includes(current) ? ids : [current, ...ids];
+}
+
 /** Solver progress mapped to 0…1 for the bar: iterations on a log scale (the count is unknown). */
 function progressFraction(iteration: number): number {
   return Math.min(0.95, Math.log1p(iteration) / Math.log1p(60));
@@ -92,7 +105,7 @@ export class Explorer {
       x: profile.x, y: profile.y, sigma: profile.sigma ?? null, mask: profile.mask ?? null,
       counts: profile.counts, y_unit: profile.yUnit,
       model_id: this.model.id,
-      model_choices: listModels().filter((m) => m.axis === "detector").map((m) => m.id),
+      model_choices: browserModelIds(this.model.id),
       params, noise: options.noise ?? "auto", window: null, masked_ranges: [],
       fit_state: "idle", fit_progress: 0, fit_message: "", result: null, fit_curve: null,
     }, { serializers: { x: typedArraySerializer, y: typedArraySerializer, sigma: typedArraySerializer, mask: typedArraySerializer, fit_curve: typedArraySerializer } });
