@@ -175,16 +175,19 @@ function levenbergMarquardt(problem: LeastSquaresProblem, start: Float64Array, o
   };
   // Gradient, column norms, scaling and the QR factorisation of the Jacobian now in `jac`.
   const processJacobian = (): void => {
-    grad.fill(0); colNorm.fill(0);
-    for (let i = 0; i < n; i++) {
-      const row = i * p, ri = r[i];
-      for (let j = 0; j < p; j++) {
-        let v = jac[row + j];
-        if (!Number.isFinite(v)) { v = 0; jac[row + j] = 0; nonFiniteJacobian = true; }
-        grad[j] += v * ri;
-        colNorm[j] += v * v;
-        qr[j * n + i] = v;
+    // column by column: sums stay in registers and the column-major copy is written in order
+    for (let j = 0; j < p; j++) {
+      let g = 0, c = 0;
+      const column = j * n;
+      for (let i = 0; i < n; i++) {
+        let v = jac[i * p + j];
+        if (!Number.isFinite(v)) { v = 0; jac[i * p + j] = 0; nonFiniteJacobian = true; }
+        g += v * r[i];
+        c += v * v;
+        qr[column + i] = v;
       }
+      grad[j] = g;
+      colNorm[j] = c;
     }
     for (let j = 0; j < p; j++) {
       colNorm[j] = Math.sqrt(colNorm[j]);

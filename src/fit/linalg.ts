@@ -184,9 +184,7 @@ export function backSubstitute(a: Float64Array, p: number, rdiag: Float64Array, 
 export function householderQrColumns(a: Float64Array, m: number, p: number, rdiag: Float64Array, tau: Float64Array): void {
   for (let k = 0; k < p; k++) {
     const ck = k * m;
-    let norm = 0;
-    for (let i = k; i < m; i++) norm += a[ck + i] * a[ck + i];
-    norm = Math.sqrt(norm);
+    const norm = Math.sqrt(dotColumns(a, ck, ck, k, m));
     if (norm === 0) { rdiag[k] = 0; tau[k] = 0; continue; }
     const akk = a[ck + k];
     const alpha = akk > 0 ? -norm : norm;
@@ -196,13 +194,25 @@ export function householderQrColumns(a: Float64Array, m: number, p: number, rdia
     tau[k] = t;
     for (let j = k + 1; j < p; j++) {
       const cj = j * m;
-      let s = 0;
-      for (let i = k; i < m; i++) s += a[ck + i] * a[cj + i];
-      s *= t;
+      const s = t * dotColumns(a, ck, cj, k, m);
       for (let i = k; i < m; i++) a[cj + i] -= s * a[ck + i];
     }
     rdiag[k] = alpha;
   }
+}
+
+/** Σ_{i = from}^{m−1} a[x + i]·a[y + i] with four partial sums (shorter dependency chains). */
+function dotColumns(a: Float64Array, x: number, y: number, from: number, m: number): number {
+  let s0 = 0, s1 = 0, s2 = 0, s3 = 0;
+  let i = from;
+  for (; i + 3 < m; i += 4) {
+    s0 += a[x + i] * a[y + i];
+    s1 += a[x + i + 1] * a[y + i + 1];
+    s2 += a[x + i + 2] * a[y + i + 2];
+    s3 += a[x + i + 3] * a[y + i + 3];
+  }
+  for (; i < m; i++) s0 += a[x + i] * a[y + i];
+  return (s0 + s1) + (s2 + s3);
 }
 
 /** Applies Qᵀ from {@link householderQrColumns} to a vector b (length m) in place. */

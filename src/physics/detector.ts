@@ -72,7 +72,6 @@ export function detectorModel(pattern: PointPattern, options: DetectorOptions = 
 
   const singleOffset = new Float64Array([0]);
   const singleWeight = new Float64Array([1]);
-  const sum = new Float64Array(np);
   const stride = np + 1;
   const one = new Float64Array(stride);
   // Quadrature nodes are evaluated in blocks of whole pixels through the pattern's bulk methods
@@ -140,12 +139,12 @@ export function detectorModel(pattern: PointPattern, options: DetectorOptions = 
     }
   };
 
-  // Optical columns to accumulate (all unless a `columns` mask drops some), made once per call.
-  const wanted = new Int32Array(np);
+  // Weight, pixel offset and blur offset of each quadrature node of one pixel, set per call.
+  const nodeWeights = new Float64Array(nodesPerPixel);
+  const nodePixelOffsets = new Float64Array(nodesPerPixel);
+  const nodeBlurOffsets = new Float64Array(nodesPerPixel);
   const jacobian = (x: Float64Array, params: Float64Array, jac: Float64Array, out?: Float64Array, columns?: Uint8Array): void => {
     pattern.prepare(params);
-    let nWanted = 0;
-    for (let m = 0; m < np; m++) if (!columns || columns[m]) wanted[nWanted++] = m;
     // ∂P/∂x is needed only for the pixel-width and blur columns
     const wantSlopeX = !columns || columns[iPixel] !== 0 || columns[iBlur] !== 0;
     const background = params[iBackground]!;
@@ -157,38 +156,46 @@ export function detectorModel(pattern: PointPattern, options: DetectorOptions = 
     // which is 0 by symmetry, so one node of weight 1 is exact
     const offsets = width === 0 ? singleOffset : pixelOffsets;
     const weights = width === 0 ? singleWeight : pixelWeights;
+    const nodes = offsets.length * blurCount;
+    for (let k = 0, q = 0; k < offsets.length; k++) {
+      for (let j = 0; j < blurCount; j++, q++) {
+        nodeWeights[q] = sigma === 0 ? weights[k]! : weights[k]! * blurWeights[j]!;
+        nodePixelOffsets[q] = offsets[k]!;
+        nodeBlurOffsets[q] = sigma === 0 ? 0 : blurOffsets[j]!;
+      }
+    }
     for (let first = 0; first < x.length; first += blockPixels) {
       const count = Math.min(blockPixels, x.length - first);
       valueGradsAt(positions, fillPositions(x, first, count, offsets, width, sigma, blurCount), values, grads);
-      let t = 0;
-      for (let i = first; i < first + count; i++) {
+      for (let i = first, t = 0; i < first + count; i++, t += nodes) {
         const xi = x[i]!;
         let total = 0;
         let dWidth = 0;
         let dSigma = 0;
-        for (let m = 0; m < np; m++) sum[m] = 0;
-        for (let k = 0; k < offsets.length; k++) {
-          const offset = offsets[k]!;
-          for (let j = 0; j < blurCount; j++, t++) {
-            const blurOffset = sigma === 0 ? 0 : blurOffsets[j]!;
-            const weight = sigma === 0 ? weights[k]! : weights[k]! * blurWeights[j]!;
-            const g = t * stride;
-            total += weight * values[t]!;
-            for (let w = 0; w < nWanted; w++) { const m = wanted[w]!; sum[m] += weight * grads[g + m]!; }
-            if (wantSlopeX) {
-              const slopeX = weight * grads[g + np]!;
-              dWidth += slopeX * offset;
-              dSigma += slopeX * blurOffset;
-            }
+        for (let q = 0; q < nodes; q++) {
+          const weight = nodeWeights[q]!;
+          total += weight * values[t + q]!;
+          if (wantSlopeX) {
+            const slopeX = weight * grads[(t + q) * stride + np]!;
+            dWidth += slopeX * nodePixelOffsets[q]!;
+            dSigma += slopeX * nodeBlurOffsets[q]!;
           }
         }
         const row = i * p;
-        for (let m = 0; m < np; m++) jac[row + m] = sum[m]!;
         jac[row + iBackground] = 1;
         jac[row + iSlope] = xi;
         jac[row + iPixel] = dWidth;
         jac[row + iBlur] = dSigma;
         if (out) out[i] = background + slope * xi + total;
+      }
+      // optical columns one at a time, each pixel's sum kept in a register; masked columns are 0
+      for (let m = 0; m < np; m++) {
+        const wanted = !columns || columns[m] !== 0;
+        for (let i = first, t = 0; i < first + count; i++, t += nodes) {
+          let sum = 0;
+          if (wanted) for (let q = 0; q < nodes; q++) sum += nodeWeights[q]! * grads[(t + q) * stride + m]!;
+          jac[i * p + m] = sum;
+        }
       }
     }
   };
