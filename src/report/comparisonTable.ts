@@ -8,6 +8,7 @@ import type { FitResult } from "../fit/types.js";
 import { compareFits } from "../stats/compareFits.js";
 import type { ComparisonResult, Criterion } from "../stats/comparisonTypes.js";
 import type { NestedTestResult } from "../stats/nested.js";
+import { pText } from "../stats/residualDiagnostics.js";
 import { fixed } from "./fitTable.js";
 import type { ReportTable, ReportTableRow } from "./table.js";
 
@@ -98,7 +99,7 @@ export function comparisonTable(fits: readonly LabelledFit[] | ComparisonResult,
       fixed(r.logLikelihood, 1),
       fixed(r.aic, 1),
       fixed(r.deltaAic, 1),
-      r.weight === 0 ? "0" : r.weight < 0.001 ? "< 0.001" : r.weight.toFixed(3),
+      !r.converged ? "0" : r.weight < 0.001 ? "< 0.001" : r.weight.toFixed(3),
       fixed(r.bic, 1),
       fixed(r.deltaBic, 1),
     ],
@@ -124,10 +125,8 @@ const CRITERION_NAMES: Record<Criterion, string> = { aic: "AIC", aicc: "AICc", b
 
 /** One line for a nested-model test: likelihood ratio (Wilks 1938) and F test, with p-values. */
 export function testNote(t: NestedTestResult): string {
-  // Below 1e-12 the tail probability is beyond the accuracy of the distributions: say so.
-  const p = (x: number) => (x < 1e-12 ? "< 1e-12" : x < 1e-4 ? `= ${x.toExponential(1)}` : `= ${x.toPrecision(2)}`);
   const extra = `${t.extraParameters} extra parameter${t.extraParameters === 1 ? "" : "s"}`;
-  return `${t.simpler} within ${t.larger} (${extra}): likelihood ratio ${fixed(t.likelihoodRatio, 2)}, p ${p(t.likelihoodRatioPValue)}; ` +
-    `F(${t.fDof[0]}, ${t.fDof[1]}) = ${fixed(t.f, 2)}, p ${p(t.fPValue)}` +
+  return `${t.simpler} within ${t.larger} (${extra}): likelihood ratio ${fixed(t.likelihoodRatio, 2)}, ${pText(t.likelihoodRatioPValue)}; ` +
+    `F(${t.fDof[0]}, ${t.fDof[1]}) = ${fixed(t.f, 2)}, ${pText(t.fPValue)}` +
     (t.boundaryCorrected ? " (likelihood-ratio p halved: the simpler model sits on a bound)." : ".");
 }

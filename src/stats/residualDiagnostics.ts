@@ -74,13 +74,13 @@ export function residualDiagnostics(fit: FitResult, options: ResidualDiagnostics
   const level = alpha / tests;
   const reasons: string[] = [];
   if (runs.pTooFew < level) {
-    reasons.push(`too few sign runs (${runs.runs} against ${runs.expected.toFixed(0)} expected, p = ${formatP(runs.pTooFew)})`);
+    reasons.push(`too few sign runs (${runs.runs} against ${runs.expected.toFixed(0)} expected, ${pText(runs.pTooFew)})`);
   }
   if (lag1.pValue < level) {
-    reasons.push(`neighbouring residuals correlated (lag-1 autocorrelation ${lag1.value.toFixed(2)}, p = ${formatP(lag1.pValue)})`);
+    reasons.push(`neighbouring residuals correlated (lag-1 autocorrelation ${lag1.value.toFixed(2)}, ${pText(lag1.pValue)})`);
   }
   if (periodicity && periodicity.pValue < level) {
-    reasons.push(`leftover power at the fringe frequency (${periodicity.ratio.toFixed(1)} × the noise floor, p = ${formatP(periodicity.pValue)})`);
+    reasons.push(`leftover power at the fringe frequency (${periodicity.ratio.toFixed(1)} × the noise floor, ${pText(periodicity.pValue)})`);
   }
   return {
     n,
@@ -126,7 +126,13 @@ export function periodicityAt(x: ArrayLike<number>, residuals: ArrayLike<number>
   };
 }
 
-/** p-value in words-friendly form: two significant figures, or "< 1e-12". */
+/** A p-value (dimensionless) as a phrase: "p = 0.034", "p = 2.7e-9" or "p < 1e-12". */
+export function pText(p: number): string {
+  const text = formatP(p);
+  return text.startsWith("<") ? `p ${text}` : `p = ${text}`;
+}
+
+/** p-value (dimensionless) in words-friendly form: two significant figures, or "< 1e-12". */
 export function formatP(p: number): string {
   if (Number.isNaN(p)) return "n/a";
   if (p < 1e-12) return "< 1e-12";

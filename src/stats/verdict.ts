@@ -7,7 +7,7 @@ import { chiSquaredSurvival } from "./chiSquared.js";
 import type { Criterion, LabelledEntry, ModelComparisonRow } from "./comparisonTypes.js";
 import { farFieldValidity, isFarFieldModel } from "./farField.js";
 import type { NestedTestResult } from "./nested.js";
-import { formatP } from "./residualDiagnostics.js";
+import { pText } from "./residualDiagnostics.js";
 
 /** Warnings about the preferred fit and the ones left out: structured residuals, far-field range, χ²/ν, fit warnings. */
 export function collectWarnings(rows: ModelComparisonRow[], entries: LabelledEntry[]): string[] {
@@ -25,9 +25,9 @@ export function collectWarnings(rows: ModelComparisonRow[], entries: LabelledEnt
   if (entries[0].fit.noise !== "robust" && dof > 0 && Number.isFinite(best.chi2)) {
     const upper = chiSquaredSurvival(best.chi2, dof);
     if (upper < 1e-3) {
-      warnings.push(`reduced χ² of ${best.label} is ${best.reducedChi2.toFixed(2)} (p = ${formatP(upper)}): the scatter is larger than the noise model says, so uncertainties from an unscaled covariance are too small`);
+      warnings.push(`reduced χ² of ${best.label} is ${best.reducedChi2.toFixed(2)} (${pText(upper)}): the scatter is larger than the noise model says, so uncertainties from an unscaled covariance are too small`);
     } else if (1 - upper < 1e-3) {
-      warnings.push(`reduced χ² of ${best.label} is ${best.reducedChi2.toFixed(2)} (p = ${formatP(1 - upper)} for so small a value): σ seems overestimated`);
+      warnings.push(`reduced χ² of ${best.label} is ${best.reducedChi2.toFixed(2)} (${pText(1 - upper)} for so small a value): σ seems overestimated`);
     }
   }
   const bestFit = entries.find((e) => e.label === best.label)!.fit;
@@ -71,13 +71,13 @@ export function writeVerdict(rows: ModelComparisonRow[], tests: NestedTestResult
   for (const t of tests) {
     const significant = t.likelihoodRatioPValue < alpha;
     parts.push(`${t.larger} against ${t.simpler} (${t.extraParameters} extra parameter${t.extraParameters > 1 ? "s" : ""}): ` +
-      `likelihood ratio ${t.likelihoodRatio.toFixed(1)}, p = ${formatP(t.likelihoodRatioPValue)}${t.boundaryCorrected ? " (halved: the simpler model sits on the extra parameter's bound)" : ""}; F = ${Number.isFinite(t.f) ? t.f.toFixed(2) : "n/a"}, ` +
-      `p = ${formatP(t.fPValue)} — the extra parameter${t.extraParameters > 1 ? "s are" : " is"} ${significant ? "needed" : "not needed"} at the ${alpha} level.`);
+      `likelihood ratio ${t.likelihoodRatio.toFixed(1)}, ${pText(t.likelihoodRatioPValue)}${t.boundaryCorrected ? " (halved: the simpler model sits on the extra parameter's bound)" : ""}; F = ${Number.isFinite(t.f) ? t.f.toFixed(2) : "n/a"}, ` +
+      `${pText(t.fPValue)} — the extra parameter${t.extraParameters > 1 ? "s are" : " is"} ${significant ? "needed" : "not needed"} at the ${alpha} level.`);
   }
   const d = best.diagnostics;
   if (!d.structured) {
-    const periodic = d.periodicity ? `, power at the fringe frequency ${d.periodicity.ratio.toFixed(1)} × noise floor (p = ${formatP(d.periodicity.pValue)})` : "";
-    parts.push(`Residuals of ${best.label} look like noise (runs test p = ${formatP(d.runs.pValue)}, Durbin–Watson ${d.durbinWatson.toFixed(2)}${periodic}).`);
+    const periodic = d.periodicity ? `, power at the fringe frequency ${d.periodicity.ratio.toFixed(1)} × noise floor (${pText(d.periodicity.pValue)})` : "";
+    parts.push(`Residuals of ${best.label} look like noise (runs test ${pText(d.runs.pValue)}, Durbin–Watson ${d.durbinWatson.toFixed(2)}${periodic}).`);
   }
   if (warnings.length) parts.push(`Warning: ${warnings.join("; ")}.`);
   return parts.join(" ");

@@ -36,14 +36,14 @@ describe("compareFits", () => {
     expect(result.preferred).toBe("two-slit");
     expect(result.verdict).toMatch(/residuals of two-slit still structured .*leftover power at the fringe frequency.*consider the near-field model/);
     // χ² = 800 with ν = 396: far in the upper tail of χ²(396), so the scatter warning appears.
-    expect(result.warnings.some((w) => /reduced χ² of two-slit is 2\.02 \(p = < 1e-12\): the scatter is larger/.test(w))).toBe(true);
+    expect(result.warnings.some((w) => /reduced χ² of two-slit is 2\.02 \(p < 1e-12\): the scatter is larger/.test(w))).toBe(true);
   });
   it("compareFits(fits, { nested }) runs the likelihood-ratio and F tests on asserted pairs", () => {
     const result = compareFits([far, near], { profile, nested: [["two-slit", "two-slit-fresnel"]] });
     expect(result.tests).toHaveLength(1);
     expect(result.tests[0].likelihoodRatio).toBe(400); // 2 (ln L_near − ln L_far) = 2 (−1300 + 1500), by hand (Wilks 1938)
     expect(result.tests[0].nesting).toBe("asserted");
-    expect(result.verdict).toMatch(/likelihood ratio 400\.0, p = < 1e-12/);
+    expect(result.verdict).toMatch(/likelihood ratio 400\.0, p < 1e-12/);
     expect(() => compareFits([far, near], { nested: [["two-slit", "nope"]] })).toThrow(/labels of the compared fits: two-slit, two-slit-fresnel/);
   });
   it("compareFits(fits) refuses different noise models, point counts, masks and data", () => {
