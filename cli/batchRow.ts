@@ -26,8 +26,8 @@ export interface BatchRow {
  */
 export function batchRow(path: string, modelId: string, args: ParsedArgs): BatchRow {
   try {
-    const { loaded, result, warnings } = fitFile(path, modelId, args);
-    return { file: path, status: result.converged ? "ok" : "not-converged", message: result.message, fit: fitJson(result, loaded.profile.provenance, warnings) };
+    const { loaded, result, warnings, assumed } = fitFile(path, modelId, args);
+    return { file: path, status: result.converged ? "ok" : "not-converged", message: result.message, fit: fitJson(result, loaded.profile.provenance, warnings, assumed) };
   } catch (error) {
     const message = error instanceof FringekitError || error instanceof UsageError ? error.message : `internal error: ${error instanceof Error ? error.message : String(error)}`;
     return { file: path, status: "error", message, fit: null };

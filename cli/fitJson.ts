@@ -3,6 +3,7 @@
  * not be estimated (Infinity) is written as null because JSON has no infinity.
  */
 import type { FitResult, Provenance } from "../src/index.js";
+import type { AssumedDefault } from "./fitSettings.js";
 
 /** The documented shape of `fringekit fit --json`. */
 export interface FitJson {
@@ -20,8 +21,9 @@ export interface FitJson {
  * @param result     the fit
  * @param provenance where the data came from
  * @param dataWarnings warnings met while reading the data
+ * @param assumed    parameters held at model defaults the user did not give (see assumedDefaults)
  */
-export function fitJson(result: FitResult, provenance: Provenance | undefined, dataWarnings: readonly string[]): FitJson {
+export function fitJson(result: FitResult, provenance: Provenance | undefined, dataWarnings: readonly string[], assumed: readonly AssumedDefault[] = []): FitJson {
   const params: FitJson["params"] = {};
   for (const p of result.parameters) params[p.name] = { value: p.value, stderr: Number.isFinite(p.stderr) ? p.stderr : null, unit: p.unit, fixed: p.fixed };
   const s = result.statistics;
@@ -31,7 +33,7 @@ export function fitJson(result: FitResult, provenance: Provenance | undefined, d
     reason: result.reason,
     params,
     stats: { n: s.n, dof: s.dof, chi2: s.chi2, reducedChi2: s.reducedChi2, logLikelihood: s.logLikelihood, aic: s.aic, aicc: s.aicc, bic: s.bic },
-    warnings: [...dataWarnings.map((message) => ({ code: "data", message })), ...result.warnings.map((w) => ({ ...w }))],
+    warnings: [...dataWarnings.map((message) => ({ code: "data", message })), ...assumed.map((a) => ({ code: a.code, message: a.message, parameter: a.parameter })), ...result.warnings.map((w) => ({ ...w }))],
     provenance: provenance ?? null,
   };
 }

@@ -1,7 +1,7 @@
 /**
  * --set, --fix and --noise words → fit options in SI, checked against the model's parameters.
  */
-import { InvalidArgumentError, parseQuantity, type Model, type NoiseModelId, type ParameterSpec } from "../src/index.js";
+import { formatQuantity, InvalidArgumentError, parseQuantity, type Model, type NoiseModelId, type ParameterSpec } from "../src/index.js";
 import type { CommandFitOptions } from "./engine.js";
 import { UsageError } from "./usageError.js";
 
@@ -78,4 +78,44 @@ export function parseParameterValue(spec: ParameterSpec, text: string, argument:
   if (spec.integer && !Number.isInteger(value)) throw new InvalidArgumentError(argument, text, "a whole number");
   if (value < spec.lower || value > spec.upper) throw new InvalidArgumentError(argument, text, `between ${spec.lower} and ${spec.upper} ${spec.unit}`);
   return value;
+}
+
+/** A parameter held at its model default because the command line did not give it. */
+export interface AssumedDefault {
+  code: "assumed-default";
+  parameter: string;
+  /** The default as printed, e.g. "632.8 nm". */
+  valueText: string;
+  message: string;
+}
+
+/**
+ * Parameters that are fixed by default at a non-zero value (wavelength, distance, number of
+ * slits, ...) and that the user did not give: the fitted values depend on them, so say so.
+ * (Effects switched off by a default of 0, such as blur, are left out.)
+ * @param model    the model fitted
+ * @param settings the options built by fitSettings (values in SI)
+ */
+export function assumedDefaults(model: Model, settings: CommandFitOptions): AssumedDefault[] {
+  const fix = settings.fix;
+  const given = (name: string): boolean => (Array.isArray(fix) ? fix.includes(name) : fix?.[name] !== undefined);
+  return model.parameters
+    .filter((p) => p.fixedByDefault && p.default !== 0 && !given(p.name))
+    .map((p) => {
+      const valueText = formatQuantity(p.default, 0, p.unit).text;
+      const message = `${p.name} not given: held at the model default ${valueText}; give the real value with --fix ${p.name}=VALUE`;
+      return { code: "assumed-default", parameter: p.name, valueText, message };
+    });
+}
+
+/**
+ * The note under the printed table naming every assumed default (none when there are none).
+ * @param assumed the list from assumedDefaults (of one or several models)
+ */
+export function assumedDefaultsNote(assumed: readonly AssumedDefault[]): string[] {
+  const values = new Map(assumed.map((a) => [a.parameter, a.valueText]));
+  if (values.size === 0) return [];
+  const list = [...values].map(([name, value]) => `${name} ${value}`).join(", ");
+  const example = [...values.keys()].map((name) => `--fix ${name}=VALUE`).join(" ");
+  return [`Held at model defaults because not given: ${list}. The fitted values depend on them; give the real ones with ${example}.`];
 }

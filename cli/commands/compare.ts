@@ -1,6 +1,6 @@
 /** `fringekit compare FILE --models A,B,... [fit settings] [--json]`. */
 import { compareFits, comparisonDocument, comparisonJson, comparisonTable, fitProfile, getModel, stringifyResults, tableToText, type FitResult } from "../../src/index.js";
-import { fitSettings } from "../fitSettings.js";
+import { assumedDefaults, assumedDefaultsNote, fitSettings, type AssumedDefault } from "../fitSettings.js";
 import { writeOutputFile } from "../files.js";
 import { loadData } from "../loadData.js";
 import { parseArgs } from "../parseArgs.js";
@@ -18,6 +18,7 @@ export function compareCommand(words: readonly string[]): CommandOutput {
   const loaded = loadData(path, args);
   const fits: FitResult[] = [];
   const fitOptions: Record<string, unknown>[] = [];
+  const assumed: AssumedDefault[] = [];
   for (const id of ids) {
     const model = getModel(id);
     // --set/--fix name parameters of any of the models; each model takes the ones it has.
@@ -25,12 +26,13 @@ export function compareCommand(words: readonly string[]): CommandOutput {
     const settings = fitSettings(model, own(args.lists.get("set") ?? []), own(args.lists.get("fix") ?? []), args.values.get("noise"));
     fits.push(fitProfile(loaded.profile, model, settings));
     fitOptions.push({ ...settings });
+    assumed.push(...assumedDefaults(model, settings));
   }
   const comparison = compareFits(fits.map((fit, i) => ({ fit, label: ids[i]!, profile: loaded.profile })), { profile: loaded.profile });
   const json = comparisonJson(comparison);
   const text = args.flags.has("json")
     ? `${JSON.stringify(json, null, 2)}\n`
-    : `${tableToText(comparisonTable(comparison, { verdict: comparison.verdict, notes: loaded.warnings }))}\n`;
+    : `${tableToText(comparisonTable(comparison, { verdict: comparison.verdict, notes: [...loaded.warnings, ...assumedDefaultsNote(assumed)] }))}\n`;
   const out = args.values.get("out");
   // A .json output is the versioned results file that `fringekit replay` re-runs.
   const document = (): string => stringifyResults(comparisonDocument(loaded.profile, fits.map((result, i) => ({ label: ids[i]!, result, fitOptions: fitOptions[i]! })), { verdict: comparison.verdict }));

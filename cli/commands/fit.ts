@@ -2,7 +2,7 @@
 import { checkCountsForPoisson, fitDocument, fitFigure, fitProfile, fitTable, getModel, stringifyResults, tableToText, type FitResult, type LoadedProfile } from "../../src/index.js";
 import type { CommandFitOptions } from "../engine.js";
 import { fitJson } from "../fitJson.js";
-import { fitSettings } from "../fitSettings.js";
+import { assumedDefaults, assumedDefaultsNote, fitSettings, type AssumedDefault } from "../fitSettings.js";
 import { checkOutputPath, writeOutputFile } from "../files.js";
 import { DATA_OPTIONS, loadData } from "../loadData.js";
 import { parseArgs, type ParsedArgs } from "../parseArgs.js";
@@ -23,14 +23,14 @@ export const FIT_OPTIONS = {
 export const DEFAULT_MODEL = "two-slit";
 
 /** Fits one file with one model. */
-export function fitFile(path: string, modelId: string, args: ParsedArgs): { loaded: LoadedProfile; result: FitResult; warnings: string[]; settings: CommandFitOptions } {
+export function fitFile(path: string, modelId: string, args: ParsedArgs): { loaded: LoadedProfile; result: FitResult; warnings: string[]; assumed: AssumedDefault[]; settings: CommandFitOptions } {
   const loaded = loadData(path, args);
   const model = getModel(modelId);
   const settings = fitSettings(model, args.lists.get("set") ?? [], args.lists.get("fix") ?? [], args.values.get("noise"));
   const warnings = [...loaded.warnings];
   if (settings.noise === "poisson") warnings.push(...checkCountsForPoisson(loaded.profile));
   const result = fitProfile(loaded.profile, model, settings);
-  return { loaded, result, warnings, settings };
+  return { loaded, result, warnings, assumed: assumedDefaults(model, settings), settings };
 }
 
 /** Runs the fit command. */
@@ -43,9 +43,10 @@ export async function fitCommand(words: readonly string[]): Promise<CommandOutpu
   if (figure !== undefined) checkOutputPath(figure, [path]);
   const out = args.values.get("out");
   if (out !== undefined) checkOutputPath(out, [path]);
-  const { loaded, result, warnings, settings } = fitFile(path, args.values.get("model") ?? DEFAULT_MODEL, args);
-  const json = fitJson(result, loaded.profile.provenance, warnings);
-  const text = args.flags.has("json") ? `${JSON.stringify(json, null, 2)}\n` : `${tableToText(fitTable(result, { source: loaded.profile.provenance?.source ?? path, notes: warnings }))}\n`;
+  const { loaded, result, warnings, assumed, settings } = fitFile(path, args.values.get("model") ?? DEFAULT_MODEL, args);
+  const json = fitJson(result, loaded.profile.provenance, warnings, assumed);
+  const notes = [...warnings, ...assumedDefaultsNote(assumed)];
+  const text = args.flags.has("json") ? `${JSON.stringify(json, null, 2)}\n` : `${tableToText(fitTable(result, { source: loaded.profile.provenance?.source ?? path, notes }))}\n`;
   // A .json output is the versioned results file that `fringekit replay` re-runs; other names get the printed text.
   if (out !== undefined) writeOutputFile(out, out.endsWith(".json") ? stringifyResults(fitDocument(loaded.profile, { result, fitOptions: { ...settings } })) : text, [path]);
   if (figure !== undefined) {

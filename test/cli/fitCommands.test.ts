@@ -60,6 +60,15 @@ describe("fringekit fit FILE", () => {
     expect(stdout).toMatch(/separation d\s+\(\d+\.\d+ ± \d+\.\d+\) µm/);
   });
 
+  it("fringekit fit line.csv says which fixed parameters were held at model defaults, and stops once they are given", async () => {
+    const text = await runInProcess(["fit", line]);
+    expect(text.stdout).toMatch(/Held at model defaults because not given: wavelength 632\.8 nm, distance 1 m\./);
+    const json = JSON.parse((await runInProcess(["fit", line, "--json", "--fix", "distance=1m"])).stdout);
+    expect(json.warnings.filter((w: { code: string }) => w.code === "assumed-default").map((w: { parameter: string }) => w.parameter)).toEqual(["wavelength"]);
+    const given = await runInProcess(["fit", line, "--set", "wavelength=632.8nm", "--fix", "distance=1m"]);
+    expect(given.stdout).not.toMatch(/Held at model defaults/);
+  });
+
   it("fringekit fit with a bad --set is a usage error naming the parameter", async () => {
     const unknown = await runInProcess(["fit", line, "--set", "colour=3"]);
     expect(unknown.code).toBe(2);
