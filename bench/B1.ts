@@ -5,6 +5,7 @@
 // Jacobian; this is the ratio of the last line) and with an analytic numpy Jacobian (printed too).
 import { spawnSync } from "node:child_process";
 import { existsSync } from "node:fs";
+import { cpus, loadavg } from "node:os";
 import { dirname, join } from "node:path";
 import { fileURLToPath } from "node:url";
 import { fitProfile } from "../src/fit/fitProfile.js";
@@ -64,7 +65,10 @@ function median(values: number[]): number {
 
 export async function main(): Promise<void> {
   const profile = b1Profile(1);
-  const rounds = 3, perRound = 5;
+  // B1_ROUNDS interleaved rounds (default 5) of 5 timed fits each side; more rounds steady the
+  // medians on a loaded machine. The load average is printed with the result.
+  const rounds = Math.max(1, Math.min(50, Number(process.env.B1_ROUNDS ?? 5) || 5)), perRound = 5;
+  const loadBefore = loadavg()[0]!;
   fitB1(profile); fitB1(profile); // warm-up
   // Interleaved rounds (fringekit, SciPy as written, SciPy with analytic Jacobian) so a change of
   // machine load during the run affects both sides alike; medians over all rounds.
@@ -73,17 +77,22 @@ export async function main(): Promise<void> {
   const haveScipy = scipyAvailable();
   let result = fitB1(profile);
   let scipy: ScipyOutcome | null = null, tuned: ScipyOutcome | null = null;
+  const roundRatios: number[] = [];
   for (let round = 0; round < rounds; round++) {
+    const roundTimes: number[] = [];
     for (let i = 0; i < perRound; i++) {
       const t0 = performance.now();
       result = fitB1(profile);
-      times.push(performance.now() - t0);
+      roundTimes.push(performance.now() - t0);
     }
+    times.push(...roundTimes);
     if (!haveScipy) continue;
     scipy = runScipy(profile, perRound, "default");
     scipyTimes.push(scipy.median_ms);
     tuned = runScipy(profile, perRound, "analytic");
     tunedTimes.push(tuned.median_ms);
+    roundRatios.push(median(roundTimes) / scipy.median_ms);
+    process.stdout.write(`round ${round + 1}: fringekit median ${median(roundTimes).toFixed(1)} ms, scipy ${scipy.median_ms.toFixed(1)} ms (analytic ${tuned.median_ms.toFixed(1)} ms), ratio ${roundRatios[round]!.toFixed(3)}\n`);
   }
   const poissonTimes: number[] = [];
   let poisson = fitB1(profile, "poisson");
@@ -106,6 +115,7 @@ export async function main(): Promise<void> {
   // Two SciPy references: the call as PROBLEMS.md writes it (finite-difference Jacobian, default
   // scaling; the ratio of the last line) and SciPy handed an analytic numpy Jacobian.
   const tunedMs = median(tunedTimes), scipyMs = median(scipyTimes);
+  process.stdout.write(`per-round ratios ${roundRatios.map((r) => r.toFixed(3)).join(" ")} (median ${median(roundRatios).toFixed(3)}); 1-min load average ${loadBefore.toFixed(1)} → ${loadavg()[0]!.toFixed(1)} on ${cpus().length} cores\n`);
   process.stdout.write(`scipy least_squares(method="lm", jac=analytic numpy, x_scale="jac"): status ${tuned.status}, ${tuned.nfev} evaluations, χ² ${tuned.chi2.toFixed(2)}, median ${tunedMs.toFixed(1)} ms; fringekit/this ratio ${(ours / tunedMs).toFixed(3)}\n`);
   process.stdout.write(`scipy least_squares(fun, p0, method="lm"): status ${scipy.status}, ${scipy.nfev} evaluations, χ² ${scipy.chi2.toFixed(2)} (fringekit ${result.statistics.chi2.toFixed(2)}), median ${scipyMs.toFixed(1)} ms\n`);
   process.stdout.write(`B1 fringekit/scipy time ratio ${(ours / scipyMs).toFixed(3)} (fringekit ${ours.toFixed(1)} ms, scipy ${scipyMs.toFixed(1)} ms)\n`);
