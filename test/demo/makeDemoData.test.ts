@@ -46,7 +46,7 @@ describe("scripts/make-demo-data.ts", () => {
 
 describe("notebooks-demo/*.ipynb", () => {
   const notebooks = readdirSync(path.join(root, "notebooks-demo")).filter((name) => name.endsWith(".ipynb"));
-  it("each notebook uses the fringekit kernel, opens with the laser-safety caution and ends with checks", () => {
+  it("each notebook uses the fringekit kernel and package imports, opens with the laser-safety caution and ends with checks", () => {
     expect(notebooks.length).toBeGreaterThanOrEqual(3);
     for (const name of notebooks) {
       const notebook = JSON.parse(readFileSync(path.join(root, "notebooks-demo", name), "utf8"));
@@ -60,6 +60,10 @@ describe("notebooks-demo/*.ipynb", () => {
       const last = notebook.cells[notebook.cells.length - 1];
       expect(last.cell_type, name).toBe("code");
       expect(text(last), name).toMatch(/throw new Error/);
+      // Cells use the package's entry points (fringekit, fringekit/figures, fringekit/widgets), as a user's would.
+      for (const cell of notebook.cells) {
+        if (cell.cell_type === "code") expect(text(cell), name).not.toMatch(/from\s+["']\.\.?\//);
+      }
       // Committed without outputs: the executed copies live in out/notebooks/.
       for (const cell of notebook.cells) if (cell.cell_type === "code") expect(cell.outputs, name).toEqual([]);
     }
