@@ -77,6 +77,7 @@ export function decodePng(bytes: Uint8Array, source: string): ImageStack {
 
 /** Short description of a decoder's exception, without a stack trace. */
 export function describe(error: unknown): string {
-  const text = error instanceof Error ? error.message : String(error);
+  // Decoder messages may end in a dangling colon ("Error while decompressing the data:").
+  const text = (error instanceof Error ? error.message : String(error)).replace(/[\s:]+$/, "");
   return text.length > 120 ? `${text.slice(0, 117)}...` : text;
 }
