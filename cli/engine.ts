@@ -3,5 +3,5 @@
  */
 import type { FitOptions } from "../src/index.js";
 
-/** The options of fitProfile the command sets from --set, --fix and --noise. */
-export type CommandFitOptions = Pick<FitOptions, "start" | "fix" | "noise">;
+/** The options of fitProfile the command sets from --set, --fix, --noise and --max-evaluations. */
+export type CommandFitOptions = Pick<FitOptions, "start" | "fix" | "noise" | "maxEvaluations">;

@@ -1,7 +1,8 @@
 /**
- * --set, --fix and --noise words → fit options in SI, checked against the model's parameters.
+ * --set, --fix, --noise and --max-evaluations words → fit options in SI, checked against the
+ * model's parameters.
  */
-import { formatQuantity, InvalidArgumentError, parseQuantity, type Model, type NoiseModelId, type ParameterSpec } from "../src/index.js";
+import { formatQuantity, InvalidArgumentError, parseQuantity, type FitResult, type Model, type NoiseModelId, type ParameterSpec } from "../src/index.js";
 import type { CommandFitOptions } from "./engine.js";
 import { UsageError } from "./usageError.js";
 
@@ -13,8 +14,9 @@ const NOISE = ["auto", "poisson", "gaussian", "robust"] as const;
  * @param sets  "NAME=VALUE[UNIT]" words of --set (starting values)
  * @param fixes "NAME" or "NAME=VALUE[UNIT]" words of --fix
  * @param noise the --noise word
+ * @param maxEvaluations the --max-evaluations word (a whole number of model evaluations per start)
  */
-export function fitSettings(model: Model, sets: readonly string[], fixes: readonly string[], noise: string | undefined): CommandFitOptions {
+export function fitSettings(model: Model, sets: readonly string[], fixes: readonly string[], noise: string | undefined, maxEvaluations?: string): CommandFitOptions {
   const options: CommandFitOptions = {};
   const start: Record<string, number> = {};
   const fix: Record<string, number> = {};
@@ -36,6 +38,13 @@ export function fitSettings(model: Model, sets: readonly string[], fixes: readon
   if (noise !== undefined) {
     if (!(NOISE as readonly string[]).includes(noise)) throw new UsageError(`invalid --noise: "${noise}" (one of ${NOISE.join(", ")})`);
     options.noise = noise as NoiseModelId | "auto";
+  }
+  if (maxEvaluations !== undefined) {
+    const limit = Number(maxEvaluations);
+    if (!/^\d+$/.test(maxEvaluations) || !(limit >= 1) || !Number.isSafeInteger(limit)) {
+      throw new UsageError(`invalid --max-evaluations: "${maxEvaluations}" (a whole number of model evaluations from 1, e.g. 5000)`);
+    }
+    options.maxEvaluations = limit;
   }
   return options;
 }
@@ -119,3 +128,31 @@ export function assumedDefaultsNote(assumed: readonly AssumedDefault[]): string[
   const example = [...values.keys()].map((name) => `--fix ${name}=VALUE`).join(" ");
   return [`Held at model defaults because not given: ${list}. The fitted values depend on them; give the real ones with ${example}.`];
 }
+
+/**
+ * Why a fit stopped without converging, in the command's words (options named as on the
+ * command line rather than as library options).
+ * @param result the fit that did not converge
+ */
+export function notConvergedText(result: FitResult): string {
+  if (result.reason === "max-evaluations") return `stopped after ${result.evaluations} model evaluations without converging; ${MORE_EVALUATIONS}`;
+  return result.message;
+}
+
+/**
+ * One phrase for several fits that did not converge, models with the same reason grouped
+ * ("two-slit and n-slit stopped after 2 model evaluations ...; raise --max-evaluations ...").
+ * @param stuck the model ids and their fits
+ */
+export function notConvergedSummary(stuck: readonly { id: string; fit: FitResult }[]): string {
+  const groups = new Map<string, string[]>();
+  for (const { id, fit } of stuck) {
+    const why = fit.reason === "max-evaluations" ? `stopped after ${fit.evaluations} model evaluations without converging` : fit.message;
+    groups.set(why, [...(groups.get(why) ?? []), id]);
+  }
+  const parts = [...groups].map(([why, ids]) => `${ids.join(" and ")} ${why}`);
+  if (stuck.some(({ fit }) => fit.reason === "max-evaluations")) parts.push(MORE_EVALUATIONS);
+  return parts.join("; ");
+}
+
+const MORE_EVALUATIONS = "raise --max-evaluations or give starting values with --set NAME=VALUE";

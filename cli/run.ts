@@ -63,7 +63,7 @@ export async function run(argv: readonly string[], io: CommandStreams = PROCESS_
     const output = await command(rest);
     if (output.stdout) io.stdout(output.stdout);
     for (const line of output.stderr ?? []) io.stderr(`${line}\n`);
-    if (output.error) io.stderr(`fringekit: ${output.error}\n`);
+    if (output.error) io.stderr(`fringekit ${name}: ${output.error}\n`);
     return output.exitCode;
   } catch (error) {
     io.stderr(`fringekit ${name}: ${oneLine(error)}\n`);

@@ -1,6 +1,6 @@
 /** `fringekit compare FILE --models A,B,... [fit settings] [--json]`. */
 import { compareFits, comparisonDocument, comparisonJson, comparisonTable, fitProfile, getModel, stringifyResults, tableToText, type FitResult } from "../../src/index.js";
-import { assumedDefaults, assumedDefaultsNote, fitSettings, type AssumedDefault } from "../fitSettings.js";
+import { assumedDefaults, assumedDefaultsNote, fitSettings, notConvergedSummary, type AssumedDefault } from "../fitSettings.js";
 import { writeOutputFile } from "../files.js";
 import { loadData } from "../loadData.js";
 import { parseArgs } from "../parseArgs.js";
@@ -23,20 +23,25 @@ export function compareCommand(words: readonly string[]): CommandOutput {
     const model = getModel(id);
     // --set/--fix name parameters of any of the models; each model takes the ones it has.
     const own = (words: readonly string[]): string[] => words.filter((w) => model.parameters.some((p) => p.name === w.split("=")[0]!.trim()));
-    const settings = fitSettings(model, own(args.lists.get("set") ?? []), own(args.lists.get("fix") ?? []), args.values.get("noise"));
+    const settings = fitSettings(model, own(args.lists.get("set") ?? []), own(args.lists.get("fix") ?? []), args.values.get("noise"), args.values.get("max-evaluations"));
     fits.push(fitProfile(loaded.profile, model, settings));
     fitOptions.push({ ...settings });
     assumed.push(...assumedDefaults(model, settings));
   }
-  const comparison = compareFits(fits.map((fit, i) => ({ fit, label: ids[i]!, profile: loaded.profile })), { profile: loaded.profile });
-  const json = comparisonJson(comparison);
+  const notes = [...loaded.warnings, ...assumedDefaultsNote(assumed)];
+  const stuck = fits.map((fit, i) => ({ fit, id: ids[i]! })).filter(({ fit }) => !fit.converged);
+  // compareFits ranks converged fits only; with none there is nothing to rank, but the fits are still reported.
+  const comparison = stuck.length < fits.length ? compareFits(fits.map((fit, i) => ({ fit, label: ids[i]!, profile: loaded.profile })), { profile: loaded.profile }) : undefined;
+  const verdict = comparison?.verdict ?? `No model converged, so none is preferred: ${notConvergedSummary(stuck)}.`;
   const text = args.flags.has("json")
-    ? `${JSON.stringify(json, null, 2)}\n`
-    : `${tableToText(comparisonTable(comparison, { verdict: comparison.verdict, notes: [...loaded.warnings, ...assumedDefaultsNote(assumed)] }))}\n`;
+    ? `${JSON.stringify(comparison ? comparisonJson(comparison) : { ranking: [], preferred: null, verdict }, null, 2)}\n`
+    : comparison
+      ? `${tableToText(comparisonTable(comparison, { verdict, notes }))}\n`
+      : `${[verdict, ...notes].join("\n")}\n`;
   const out = args.values.get("out");
   // A .json output is the versioned results file that `fringekit replay` re-runs.
-  const document = (): string => stringifyResults(comparisonDocument(loaded.profile, fits.map((result, i) => ({ label: ids[i]!, result, fitOptions: fitOptions[i]! })), { verdict: comparison.verdict }));
+  const document = (): string => stringifyResults(comparisonDocument(loaded.profile, fits.map((result, i) => ({ label: ids[i]!, result, fitOptions: fitOptions[i]! })), { verdict }));
   if (out !== undefined) writeOutputFile(out, out.endsWith(".json") ? document() : text, [path]);
-  const allConverged = fits.every((f) => f.converged);
-  return { stdout: text, exitCode: allConverged ? 0 : 1, ...(allConverged ? {} : { error: `${path}: ${fits.filter((f) => !f.converged).map((f) => f.modelId).join(", ")} did not converge` }) };
+  if (stuck.length === 0) return { stdout: text, exitCode: 0 };
+  return { stdout: text, exitCode: 1, error: `${path}: not every fit converged (${notConvergedSummary(stuck)}); the result was still written` };
 }

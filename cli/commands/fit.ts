@@ -2,7 +2,7 @@
 import { checkCountsForPoisson, fitDocument, fitFigure, fitProfile, fitTable, getModel, stringifyResults, tableToText, type FitResult, type LoadedProfile } from "../../src/index.js";
 import type { CommandFitOptions } from "../engine.js";
 import { fitJson } from "../fitJson.js";
-import { assumedDefaults, assumedDefaultsNote, fitSettings, type AssumedDefault } from "../fitSettings.js";
+import { assumedDefaults, assumedDefaultsNote, fitSettings, notConvergedText, type AssumedDefault } from "../fitSettings.js";
 import { checkOutputPath, writeOutputFile } from "../files.js";
 import { DATA_OPTIONS, loadData } from "../loadData.js";
 import { parseArgs, type ParsedArgs } from "../parseArgs.js";
@@ -15,6 +15,7 @@ export const FIT_OPTIONS = {
   set: { kind: "list" },
   fix: { kind: "list" },
   noise: { kind: "value" },
+  "max-evaluations": { kind: "value" },
   json: { kind: "flag" },
   out: { kind: "value" },
 } as const;
@@ -26,7 +27,7 @@ export const DEFAULT_MODEL = "two-slit";
 export function fitFile(path: string, modelId: string, args: ParsedArgs): { loaded: LoadedProfile; result: FitResult; warnings: string[]; assumed: AssumedDefault[]; settings: CommandFitOptions } {
   const loaded = loadData(path, args);
   const model = getModel(modelId);
-  const settings = fitSettings(model, args.lists.get("set") ?? [], args.lists.get("fix") ?? [], args.values.get("noise"));
+  const settings = fitSettings(model, args.lists.get("set") ?? [], args.lists.get("fix") ?? [], args.values.get("noise"), args.values.get("max-evaluations"));
   const warnings = [...loaded.warnings];
   if (settings.noise === "poisson") warnings.push(...checkCountsForPoisson(loaded.profile));
   const result = fitProfile(loaded.profile, model, settings);
@@ -57,6 +58,6 @@ export async function fitCommand(words: readonly string[]): Promise<CommandOutpu
   return {
     stdout: text,
     exitCode: result.converged ? 0 : 1,
-    ...(result.converged ? {} : { error: `${path}: the fit did not converge (${result.message}); the result was still written` }),
+    ...(result.converged ? {} : { error: `${path}: the fit did not converge (${notConvergedText(result)}); the result was still written` }),
   };
 }

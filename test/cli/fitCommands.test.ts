@@ -1,4 +1,4 @@
-import { mkdtempSync, readFileSync, rmSync, writeFileSync } from "node:fs";
+import { mkdirSync, mkdtempSync, readFileSync, rmSync, writeFileSync } from "node:fs";
 import { tmpdir } from "node:os";
 import { join } from "node:path";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
@@ -131,7 +131,64 @@ describe("fringekit compare FILE --models", () => {
   });
 });
 
+describe("fringekit fit/compare/batch --max-evaluations N: a fit that does not converge exits 1 and still writes", () => {
+  // Two model evaluations cannot take a seven-parameter fit from its automatic start to the
+  // optimum (the solver needs one evaluation per step and at least several steps; common practice).
+  it("fringekit fit line.csv --max-evaluations 2 --json --out res.json exits 1, says why, and writes the result", async () => {
+    const out = join(work, "stuck.json");
+    const { code, stdout, stderr } = await runInProcess(["fit", line, "--max-evaluations", "2", "--json", "--out", out]);
+    expect(code).toBe(1);
+    expect(stderr).toMatch(/^fringekit fit: .*line\.csv: the fit did not converge \(stopped after \d+ model evaluations without converging; raise --max-evaluations/);
+    expect(stderr.trim().split("\n")).toHaveLength(1);
+    const json = JSON.parse(stdout);
+    expect(json).toMatchObject({ converged: false, reason: "max-evaluations" });
+    expect(JSON.parse(readFileSync(out, "utf8")).fits[0].result.converged).toBe(false);
+  });
+
+  it("fringekit compare line.csv --max-evaluations 2 exits 1 with no ranking, and writes the results file", async () => {
+    const out = join(work, "stuck-compare.json");
+    const { code, stdout, stderr } = await runInProcess(["compare", line, "--models", "two-slit,single-slit", "--max-evaluations", "2", "--out", out]);
+    expect(code).toBe(1);
+    expect(stdout).toMatch(/^No model converged, so none is preferred: two-slit and single-slit stopped after/);
+    expect(stderr).toMatch(/^fringekit compare: .*not every fit converged/);
+    expect(JSON.parse(readFileSync(out, "utf8")).fits).toHaveLength(2);
+  });
+
+  it("fringekit batch line.csv --max-evaluations 2 --jobs 1 marks the row not-converged and exits 1", async () => {
+    const out = join(work, "stuck.csv");
+    const { code, stderr } = await runInProcess(["batch", line, "--max-evaluations", "2", "--jobs", "1", "--out", out]);
+    expect(code).toBe(1);
+    expect(stderr).toMatch(/1 file: 0 fitted, 1 did not converge, 0 could not be read or fitted/);
+    expect(readFileSync(out, "utf8").split("\n")[1]).toMatch(/line\.csv,not-converged,/);
+  });
+
+  it("fringekit fit --max-evaluations 0 is a usage error", async () => {
+    const { code, stderr } = await runInProcess(["fit", line, "--max-evaluations", "0"]);
+    expect(code).toBe(2);
+    expect(stderr).toMatch(/invalid --max-evaluations: "0" \(a whole number of model evaluations from 1/);
+  });
+});
+
 describe("fringekit batch FILES --out", () => {
+  it("fringekit batch FOLDER --jobs 1 fits the data files in it, sorted by name; a folder without data files is refused", async () => {
+    const folder = join(work, "scan");
+    mkdirSync(folder);
+    writeFileSync(join(folder, "b.csv"), readFileSync(line));
+    writeFileSync(join(folder, "a.csv"), readFileSync(line));
+    writeFileSync(join(folder, "notes.json"), "{}");
+    writeFileSync(join(folder, ".hidden.csv"), "not data");
+    const out = join(work, "folder.csv");
+    const { code } = await runInProcess(["batch", folder, "--jobs", "1", "--out", out]);
+    expect(code).toBe(0);
+    const files = readFileSync(out, "utf8").trim().split("\n").slice(1).map((r) => r.split(",")[0]);
+    expect(files).toEqual([join(folder, "a.csv"), join(folder, "b.csv")]);
+    const empty = join(work, "empty");
+    mkdirSync(empty);
+    const refused = await runInProcess(["batch", empty, "--out", join(work, "none.csv")]);
+    expect(refused.code).toBe(2);
+    expect(refused.stderr).toMatch(/empty: a folder with no data files \(\.csv, .*\); give the data files or the folder that holds them/);
+  });
+
   it("fringekit batch 3 good files + 1 bad --jobs 2 writes one row per file and does not stop", () => {
     const files = [writeLine("b1.csv", 21), writeLine("b2.csv", 22), join(work, "bad.csv"), writeLine("b3.csv", 23)];
     writeFileSync(files[2]!, "position [mm],intensity\n0.1,1\n0.1,2\n0.2,3\n");
