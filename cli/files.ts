@@ -3,7 +3,7 @@
  * (temporary file in the same folder, then rename), never over an input file.
  */
 import { randomBytes } from "node:crypto";
-import { readFileSync, renameSync, statSync, unlinkSync, writeFileSync, openSync, readSync, closeSync, realpathSync } from "node:fs";
+import { readdirSync, readFileSync, renameSync, statSync, unlinkSync, writeFileSync, openSync, readSync, closeSync, realpathSync } from "node:fs";
 import { basename, dirname, join, resolve } from "node:path";
 import { DataError, MAX_IMAGE_BYTES, MAX_TABLE_BYTES, checkFileSize, isImage } from "../src/index.js";
 
@@ -77,4 +77,28 @@ export function checkOutputPath(path: string, inputs: readonly string[] = []): v
 function sameFile(target: string, input: string): boolean {
   const real = (p: string): string => { try { return realpathSync(p); } catch { return resolve(p); } };
   return real(target) === real(input);
+}
+
+/** File name endings the commands read as data (text tables and camera frames). */
+const DATA_ENDINGS = /\.(csv|tsv|txt|dat|png|tif|tiff)$/i;
+
+/**
+ * The data files named on a command line, with each folder replaced by its data files
+ * (.csv, .tsv, .txt, .dat, .png, .tif, .tiff; sorted by name; not recursive, hidden files skipped).
+ * Paths that are not folders pass through unchanged, so a missing file is reported by its row.
+ * @param paths the paths as given
+ */
+export function expandFolders(paths: readonly string[]): string[] {
+  return paths.flatMap((path) => {
+    let names: string[];
+    try {
+      if (!statSync(path).isDirectory()) return [path];
+      names = readdirSync(path);
+    } catch {
+      return [path];
+    }
+    const files = names.filter((n) => !n.startsWith(".") && DATA_ENDINGS.test(n)).sort().map((n) => join(path, n));
+    if (files.length === 0) throw new DataError(path, "a folder with no data files (.csv, .tsv, .txt, .dat, .png, .tif, .tiff)", "give the data files or the folder that holds them");
+    return files;
+  });
 }

@@ -5,16 +5,17 @@ Usage:
   fringekit models [--json]
   fringekit fit FILE [--model ID] [--set NAME=VALUE[UNIT]]... [--fix NAME[=VALUE[UNIT]]]...
                 [--noise auto|poisson|gaussian|robust] [--mask-saturated]
-                [--pixel-pitch VALUE UNIT] [--json] [--out FILE]
+                [--pixel-pitch VALUE UNIT] [--max-evaluations N] [--json] [--out FILE]
   fringekit compare FILE --models ID,ID,... [--set ...] [--fix ...] [--noise ...] [--json] [--out FILE]
   fringekit profile FRAME [--roi X,Y,WIDTH,HEIGHT] [--dark FILE] [--flat FILE]
                 [--pixel-pitch VALUE UNIT] [--tilt auto|ANGLE] [--page N|mean] [--out FILE.csv]
-  fringekit batch FILES... [--model ID] [--jobs N] --out results.csv|results.json
+  fringekit batch FILES|FOLDERS... [--model ID] [--jobs N] --out results.csv|results.json
   fringekit kernel install [--user | --prefix DIR]
   fringekit replay RESULT.json [--data FILE]
 
 Data files: text tables (CSV, TSV, semicolon- or space-separated; units in the header such as
-"position [mm]" and "intensity (counts)"), or PNG/TIFF camera frames (need --pixel-pitch).
+"position [mm]" and "intensity (counts)"), or PNG/TIFF camera frames (give --pixel-pitch unless
+the PNG records its pixel size).
 Column choice: --x COL --y COL --sigma COL|none (name or number, 1 = first), --x-unit UNIT.
 Values take units with or without a space: 532nm, 532 nm, 0.85m, 5.5 um.
 The default model is two-slit; "fringekit models" lists the models and their parameters.

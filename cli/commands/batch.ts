@@ -1,8 +1,8 @@
-/** `fringekit batch FILES... [--model ID] [--jobs N] --out results.csv|.json`. */
+/** `fringekit batch FILES|FOLDERS... [--model ID] [--jobs N] --out results.csv|.json`. */
 import { availableParallelism } from "node:os";
 import { Worker } from "node:worker_threads";
 import { batchCsv, batchRow, type BatchRow } from "../batchRow.js";
-import { writeOutputFile } from "../files.js";
+import { expandFolders, writeOutputFile } from "../files.js";
 import { parseArgs, type ParsedArgs } from "../parseArgs.js";
 import type { CommandOutput } from "../output.js";
 import { UsageError } from "../usageError.js";
@@ -12,8 +12,8 @@ import { DEFAULT_MODEL, FIT_OPTIONS } from "./fit.js";
 export async function batchCommand(words: readonly string[]): Promise<CommandOutput> {
   const { json: _json, out: _out, ...fitOptions } = FIT_OPTIONS;
   const args = parseArgs(words, { ...fitOptions, model: { kind: "value" }, jobs: { kind: "value" }, out: { kind: "value" } }, "batch");
-  const files = args.positionals;
-  if (files.length === 0) throw new UsageError("batch needs at least one data file");
+  if (args.positionals.length === 0) throw new UsageError("batch needs at least one data file or folder");
+  const files = expandFolders(args.positionals);
   const out = args.values.get("out");
   if (out === undefined || !/\.(csv|json)$/i.test(out)) throw new UsageError("batch needs --out results.csv or --out results.json");
   const jobsText = args.values.get("jobs");
@@ -25,7 +25,7 @@ export async function batchCommand(words: readonly string[]): Promise<CommandOut
   writeOutputFile(out, content, files);
   const failed = rows.filter((r) => r.status === "error").length;
   const notConverged = rows.filter((r) => r.status === "not-converged").length;
-  const summary = `${rows.length} files: ${rows.length - failed - notConverged} fitted, ${notConverged} did not converge, ${failed} could not be read or fitted; results in ${out}`;
+  const summary = `${rows.length} file${rows.length === 1 ? "" : "s"}: ${rows.length - failed - notConverged} fitted, ${notConverged} did not converge, ${failed} could not be read or fitted; results in ${out}`;
   return { stdout: "", exitCode: failed + notConverged > 0 ? 1 : 0, stderr: [summary] };
 }
 

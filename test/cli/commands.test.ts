@@ -97,6 +97,7 @@ describe("fringekit profile FRAME", () => {
     expect(stdout).toBe("");
     const text = readFileSync(out, "utf8");
     expect(text).toMatch(/^# profile of good16\.png \(sha256 [0-9a-f]{64}\)/);
+    expect(text).toContain("\n# pixel pitch 5.5 µm (--pixel-pitch)\n");
     expect(text).toContain("position [mm],intensity,sigma\n0,1739,");
     expect(text).toContain("\n0.0055,1306,"); // 1 pixel × 5.5 µm = 0.0055 mm; 1306 = round(1000 + 800 cos(2π·(−14.5)/8)) from the scene
   });
