@@ -3,19 +3,13 @@
  * size, ...): each value ± standard uncertainty with its unit (GUM 7.2.6 rounding) and a note.
  */
 import { InvalidArgumentError } from "../errors.js";
+import type { DerivedQuantity } from "../stats/quantity.js";
 import { formatQuantity, type FormatOptions } from "./formatQuantity.js";
 import { parameterLabel } from "./labels.js";
 import type { ReportTable, ReportTableRow } from "./table.js";
 
-/** A value ± standard uncertainty in an SI unit (the shape stats' derivedQuantities returns). */
-export interface QuantityRow {
-  name: string;
-  value: number;
-  /** Standard uncertainty (same unit); 0 for an exact or known value, Infinity when unknown. */
-  uncertainty: number;
-  unit: string;
-  note?: string;
-}
+/** A value ± standard uncertainty in an SI unit: the shape stats' derivedQuantities returns. */
+export type QuantityRow = DerivedQuantity;
 
 /** Options of quantityTable: caption, number format, notes. */
 export interface QuantityTableOptions {

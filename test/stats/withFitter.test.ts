@@ -11,15 +11,22 @@ import { seeded } from "./fakeFit.js";
 
 const lambda = 632.8e-9;
 
+/**
+ * A Poisson profile simulated with the near-field two-slit model on `pixels` pixels of pitch
+ * `pitch` (m), and its near-field fit started at the truth with `nudge` applied.
+ */
+function nearFieldFit(truth: Record<string, number>, pixels: number, pitch: number, seed: number, nudge: Record<string, number>) {
+  const near = getModel("two-slit-fresnel");
+  const profile = simulateProfile(near, paramVector(near, truth), pixelPositions(pixels, pitch), { noise: "poisson", seed });
+  return { profile, nearFit: fitProfile(profile, near, { start: { ...truth, ...nudge } }) };
+}
+
 describe("near-field against far-field model", () => {
+  const far = getModel("two-slit");
   it("compareFits prefers two-slit-fresnel by a wide AIC margin on a profile at Fresnel number ≈ 3", () => {
     // a²/(λL) = (0.44 mm)²/(632.8 nm · 0.1 m) = 3.06 (physics farFieldCheck convention).
     const truth = { amplitude: 3000, center: 1e-5, separation: 1e-3, width: 0.44e-3, slits: 2, wavelength: lambda, distance: 0.1, background: 20 };
-    const near = getModel("two-slit-fresnel");
-    const x = pixelPositions(1000, 3e-6);
-    const profile = simulateProfile(near, paramVector(near, truth), x, { noise: "poisson", seed: 11 });
-    const nearFit = fitProfile(profile, near, { start: { ...truth, amplitude: 2900, width: 0.43e-3, separation: 1.01e-3 } });
-    const far = getModel("two-slit");
+    const { profile, nearFit } = nearFieldFit(truth, 1000, 3e-6, 11, { amplitude: 2900, width: 0.43e-3, separation: 1.01e-3 });
     // Started at the true geometry, the far-field sinc² lobe (half-width λL/a = 0.14 mm) sits on
     // the dark gap between the two slit images, so the fit falls onto amplitude = 0 with the
     // background at the data mean: a flat line, a stationary point on the bound, not the
@@ -44,11 +51,7 @@ describe("near-field against far-field model", () => {
   it("compareFits does not prefer two-slit-fresnel by a wide margin on a far-field profile", () => {
     // a²/(λL) = 0.016 and d·a/(λL) = 0.079: inside the far-field range (limit 0.1).
     const truth = { amplitude: 400, center: 2e-5, separation: 0.5e-3, width: 0.1e-3, slits: 2, wavelength: lambda, distance: 1, background: 20 };
-    const near = getModel("two-slit-fresnel");
-    const x = pixelPositions(2048, 5.5e-6);
-    const profile = simulateProfile(near, paramVector(near, truth), x, { noise: "poisson", seed: 5 });
-    const nearFit = fitProfile(profile, near, { start: { ...truth, amplitude: 390, width: 0.098e-3, separation: 0.501e-3 } });
-    const far = getModel("two-slit");
+    const { profile, nearFit } = nearFieldFit(truth, 2048, 5.5e-6, 5, { amplitude: 390, width: 0.098e-3, separation: 0.501e-3 });
     const farPeak = (truth.amplitude * (2 * truth.width) ** 2) / (lambda * truth.distance);
     const farFit = fitProfile(profile, far, {
       start: { amplitude: farPeak * 0.95, center: 2e-5, separation: 0.501e-3, width: 0.098e-3, visibility: 0.95, phase: 0, wavelength: lambda, distance: 1, background: 20 },
