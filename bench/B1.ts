@@ -69,7 +69,9 @@ export async function main(): Promise<void> {
   // medians on a loaded machine. The load average is printed with the result.
   const rounds = Math.max(1, Math.min(50, Number(process.env.B1_ROUNDS ?? 5) || 5)), perRound = 5;
   const loadBefore = loadavg()[0]!;
-  fitB1(profile); fitB1(profile); // warm-up
+  // warm-up: enough fits for the JIT to finish optimising the hot loops (with 2, the first
+  // timed round still ran partly unoptimised code)
+  for (let i = 0; i < 10; i++) fitB1(profile);
   // Interleaved rounds (fringekit, SciPy as written, SciPy with analytic Jacobian) so a change of
   // machine load during the run affects both sides alike; medians over all rounds.
   const times: number[] = [];
