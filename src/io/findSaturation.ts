@@ -11,7 +11,7 @@ export const TOP_CODES = [255, 1023, 4095, 16383, 65535] as const;
  * the largest value and that value is a detector top code; otherwise undefined.
  * @param values   intensities (counts)
  * @param minCount how many samples at the maximum make a plateau (default 2)
- * @param topCode  the detector's top code when known (e.g. from the image bit depth)
+ * @param topCode  the detector's top code (counts) when known (e.g. 4095 from a 12-bit depth)
  */
 export function findSaturationCode(values: ArrayLike<number>, minCount = 2, topCode?: number): number | undefined {
   let max = -Infinity;

@@ -30,7 +30,7 @@ export function checkFileSize(byteLength: number, source: string, kind: "table" 
   }
 }
 
-/** "12.3 MiB" style size text. */
+/** "12.3 MiB" style size text of a size given in bytes. */
 export function formatBytes(bytes: number): string {
   if (bytes < 1024) return `${bytes} bytes`;
   const units = ["KiB", "MiB", "GiB", "TiB"];

@@ -11,7 +11,7 @@ const EPS = 1e-16;
 const TINY = 1e-300;
 const MAX_ITERATIONS = 100_000;
 
-/** ln B(a, b) = ln Γ(a) + ln Γ(b) − ln Γ(a + b), a, b > 0 (A&S 6.2.2). */
+/** ln B(a, b) = ln Γ(a) + ln Γ(b) − ln Γ(a + b), a, b > 0 dimensionless (A&S 6.2.2). */
 export function logBeta(a: number, b: number): number {
   return lnGamma(a) + lnGamma(b) - lnGamma(a + b);
 }

@@ -10,14 +10,14 @@ function checkDof(k: number): void {
   if (!(k > 0) || !Number.isFinite(k)) throw new InvalidArgumentError("degrees of freedom", k, "a finite number > 0");
 }
 
-/** P(X ≤ x) for X ~ χ²(k); x ≥ 0 dimensionless. */
+/** P(X ≤ x) for X ~ χ²(k); x ≥ 0 dimensionless, k degrees of freedom. */
 export function chiSquaredCdf(x: number, k: number): number {
   checkDof(k);
   if (Number.isNaN(x)) throw new InvalidArgumentError("x", x, "x must be a number");
   return x <= 0 ? 0 : regularizedGammaP(k / 2, x / 2);
 }
 
-/** P(X > x) for X ~ χ²(k): the p-value of an observed χ² statistic x. */
+/** P(X > x) for X ~ χ²(k): the p-value of an observed χ² statistic x (dimensionless; k degrees of freedom). */
 export function chiSquaredSurvival(x: number, k: number): number {
   checkDof(k);
   if (Number.isNaN(x)) throw new InvalidArgumentError("x", x, "x must be a number");
@@ -25,7 +25,7 @@ export function chiSquaredSurvival(x: number, k: number): number {
 }
 
 /**
- * The x with P(X ≤ x) = p for X ~ χ²(k), 0 < p < 1.
+ * The x with P(X ≤ x) = p for X ~ χ²(k), 0 < p < 1 (all dimensionless; k degrees of freedom).
  * @example chiSquaredQuantile(0.95, 1) // ≈ 3.841 (A&S Table 26.8)
  */
 export function chiSquaredQuantile(p: number, k: number): number {

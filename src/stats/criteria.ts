@@ -22,7 +22,8 @@ export interface InformationCriteria {
 }
 
 /**
- * AIC, AICc and BIC from a log-likelihood, k free parameters and n points.
+ * AIC, AICc and BIC (dimensionless) from a log-likelihood (natural log, dimensionless), k free
+ * parameters and n points.
  * @example informationCriteria(-10, 2, 20) // { aic: 24, aicc: 24.705..., bic: 25.99... }
  */
 export function informationCriteria(logLikelihood: number, k: number, n: number): InformationCriteria {

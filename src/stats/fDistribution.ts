@@ -20,7 +20,7 @@ export function fCdf(x: number, d1: number, d2: number): number {
   return regularizedBeta((d1 * x) / (d1 * x + d2), d1 / 2, d2 / 2);
 }
 
-/** P(F > x) for F ~ F(d1, d2): the p-value of an observed F statistic x. */
+/** P(F > x) for F ~ F(d1, d2): the p-value of an observed F statistic x (dimensionless; d1, d2 degrees of freedom). */
 export function fSurvival(x: number, d1: number, d2: number): number {
   checkDof(d1, d2);
   if (Number.isNaN(x)) throw new InvalidArgumentError("x", x, "x must be a number");
@@ -29,7 +29,7 @@ export function fSurvival(x: number, d1: number, d2: number): number {
   return regularizedBeta(d2 / (d2 + d1 * x), d2 / 2, d1 / 2);
 }
 
-/** The x with P(F ≤ x) = p for F ~ F(d1, d2), 0 < p < 1. */
+/** The x with P(F ≤ x) = p for F ~ F(d1, d2), 0 < p < 1 (all dimensionless; d1, d2 degrees of freedom). */
 export function fQuantile(p: number, d1: number, d2: number): number {
   checkDof(d1, d2);
   if (!(p > 0 && p < 1)) throw new InvalidArgumentError("p", p, "a probability strictly between 0 and 1");

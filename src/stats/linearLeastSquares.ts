@@ -6,7 +6,7 @@
  */
 
 /**
- * Solves min Σ w_i (y_i − Σ_j A_ij β_j)².
+ * Solves min Σ w_i (y_i − Σ_j A_ij β_j)² (any consistent units: β in units of y per unit of A).
  * @param rows        design matrix rows A_i (length p each)
  * @param y           observations
  * @param weights     w_i = 1/σ_i²
@@ -47,7 +47,7 @@ export function solveNormalEquations(rows: readonly number[][], y: readonly numb
   return { coefficients, covariance: inverse, chi2 };
 }
 
-/** Inverse of a small square matrix (row-major p × p) by Gauss–Jordan elimination with partial pivoting. */
+/** Inverse of a small square matrix (row-major p × p, entries in any units; the inverse has the reciprocal units) by Gauss–Jordan elimination with partial pivoting. */
 export function invertMatrix(matrix: Float64Array, p: number): Float64Array | undefined {
   const a = Float64Array.from(matrix);
   const inv = new Float64Array(p * p);

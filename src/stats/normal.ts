@@ -19,7 +19,7 @@ export function normalSurvival(z: number): number {
   return normalCdf(-z);
 }
 
-/** Two-sided tail probability P(|Z| ≥ |z|) = erfc(|z|/√2). */
+/** Two-sided tail probability P(|Z| ≥ |z|) = erfc(|z|/√2), z in standard deviations. */
 export function normalTwoSided(z: number): number {
   if (Number.isNaN(z)) throw new InvalidArgumentError("z", z, "z must be a number");
   return z === 0 ? 1 : regularizedGammaQ(0.5, 0.5 * z * z);
@@ -31,7 +31,7 @@ export function normalPdf(z: number): number {
 }
 
 /**
- * Φ⁻¹(p): the z with Φ(z) = p, for 0 < p < 1.
+ * Φ⁻¹(p): the z (in standard deviations) with Φ(z) = p, for 0 < p < 1.
  * @example normalQuantile(0.975) // ≈ 1.959964
  */
 export function normalQuantile(p: number): number {

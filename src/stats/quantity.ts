@@ -91,7 +91,7 @@ function checkMeasured(name: string, input: Measured): void {
   if (!(input.uncertainty >= 0)) throw new InvalidArgumentError(`calibration.${name}.uncertainty`, input.uncertainty, "a standard uncertainty >= 0 in SI units");
 }
 
-/** A DerivedQuantity from a propagated value. */
+/** A DerivedQuantity from a propagated value and uncertainty, both in `unit` (an SI unit symbol). */
 export function derivedQuantity(name: string, result: { value: number; uncertainty: number }, unit: string, note?: string): DerivedQuantity {
   return note === undefined ? { name, ...result, unit } : { name, ...result, unit, note };
 }

@@ -99,6 +99,9 @@ export function residualDiagnostics(fit: FitResult, options: ResidualDiagnostics
  * Leftover periodicity: Lomb–Scargle power at the fringe frequency and twice it, against the
  * mean power over 64 frequencies spread below the Nyquist limit, skipping ±3 resolution widths
  * (1/span) around both.
+ * @param x         positions (m)
+ * @param residuals normalised residuals (dimensionless)
+ * @param frequency fringe frequency (cycles per metre)
  */
 export function periodicityAt(x: ArrayLike<number>, residuals: ArrayLike<number>, frequency: number): PeriodicityResult {
   const power = lombScarglePower(x, residuals, frequency);

@@ -24,7 +24,7 @@ export interface RunsTestResult {
   pValue: number;
 }
 
-/** Wald–Wolfowitz runs test on the signs of `residuals` (NaN entries skipped). */
+/** Wald–Wolfowitz runs test on the signs of `residuals` (normalised, dimensionless; NaN entries skipped). */
 export function runsTest(residuals: ArrayLike<number>): RunsTestResult {
   let positives = 0;
   let negatives = 0;
@@ -50,7 +50,7 @@ export function runsTest(residuals: ArrayLike<number>): RunsTestResult {
   return { runs, positives, negatives, expected, z, pTooFew: normalCdf(z), pValue: normalTwoSided(z) };
 }
 
-/** Durbin–Watson d = Σ(r_i − r_{i−1})² / Σ r_i² over consecutive finite residuals; ≈ 2 for white noise. */
+/** Durbin–Watson d = Σ(r_i − r_{i−1})² / Σ r_i² over consecutive finite residuals (any unit; d dimensionless); ≈ 2 for white noise. */
 export function durbinWatson(residuals: ArrayLike<number>): number {
   let numerator = 0;
   let denominator = 0;
@@ -66,7 +66,7 @@ export function durbinWatson(residuals: ArrayLike<number>): number {
 }
 
 /**
- * Lag-k sample autocorrelation ρ_k of the finite residuals (in their order) and its two-sided
+ * Lag-k (k in samples) sample autocorrelation ρ_k (dimensionless) of the finite residuals (in their order) and its two-sided
  * p-value from ρ_k √N ~ N(0, 1).
  */
 export function autocorrelation(residuals: ArrayLike<number>, lag = 1): { lag: number; value: number; pValue: number } {

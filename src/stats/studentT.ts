@@ -10,7 +10,7 @@ function checkDof(nu: number): void {
   if (!(nu > 0) || !Number.isFinite(nu)) throw new InvalidArgumentError("degrees of freedom", nu, "a finite number > 0");
 }
 
-/** P(T ≤ t) for T ~ t(ν); t dimensionless. */
+/** P(T ≤ t) for T ~ t(ν); t dimensionless, ν degrees of freedom. */
 export function studentTCdf(t: number, nu: number): number {
   checkDof(nu);
   if (Number.isNaN(t)) throw new InvalidArgumentError("t", t, "t must be a number");
@@ -20,7 +20,7 @@ export function studentTCdf(t: number, nu: number): number {
   return t > 0 ? 1 - tail : tail;
 }
 
-/** Two-sided p-value P(|T| ≥ |t|) for T ~ t(ν). */
+/** Two-sided p-value P(|T| ≥ |t|) for T ~ t(ν); t dimensionless, ν degrees of freedom. */
 export function studentTTwoSided(t: number, nu: number): number {
   checkDof(nu);
   if (Number.isNaN(t)) throw new InvalidArgumentError("t", t, "t must be a number");
@@ -29,7 +29,7 @@ export function studentTTwoSided(t: number, nu: number): number {
 }
 
 /**
- * The t with P(T ≤ t) = p for T ~ t(ν), 0 < p < 1 — e.g. the coverage factor of a
+ * The t (dimensionless) with P(T ≤ t) = p for T ~ t(ν), 0 < p < 1, ν degrees of freedom — e.g. the coverage factor of a
  * 95 % interval is studentTQuantile(0.975, ν).
  */
 export function studentTQuantile(p: number, nu: number): number {

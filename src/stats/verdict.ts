@@ -51,7 +51,7 @@ function strength(delta: number): string {
   return "decisive preference";
 }
 
-/** The verdict: which model, by how much, how sure, the nested tests, residuals and warnings. */
+/** The verdict: which model, by how much, how sure, the nested tests, residuals and warnings; `alpha` is the significance level (dimensionless). */
 export function writeVerdict(rows: ModelComparisonRow[], tests: NestedTestResult[], warnings: string[], criterion: Criterion, alpha: number): string {
   const name = criterion.toUpperCase().replace("AICC", "AICc");
   const deltaKey = ({ aic: "deltaAic", aicc: "deltaAicc", bic: "deltaBic" } as const)[criterion];

@@ -59,7 +59,7 @@ export function withMimeBundle(figure: Omit<FigureSpec, "toMimeBundle">): Figure
   return spec;
 }
 
-/** Plain number array for JSON (NaN and ±Infinity become null, which plotly draws as a gap). */
+/** Plain number array for JSON, each value (any unit) times `scale` (NaN and ±Infinity become null, which plotly draws as a gap). */
 export function plainArray(values: ArrayLike<number>, scale = 1): (number | null)[] {
   const out = new Array<number | null>(values.length);
   for (let i = 0; i < values.length; i++) {

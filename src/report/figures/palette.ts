@@ -31,7 +31,7 @@ export const DIVERGING: [number, string][] = [
   [1, "#74280e"],
 ];
 
-/** Colour, dash and marker of series `i` (wraps around after four). */
+/** Colour, dash and marker of series `i` (0-based index; wraps around after four). */
 export function seriesStyle(i: number): { color: string; dash: string; marker: string } {
   const k = ((i % SERIES.length) + SERIES.length) % SERIES.length;
   return { color: SERIES[k], dash: SERIES_DASH[k], marker: SERIES_MARKER[k] };

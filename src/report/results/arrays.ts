@@ -49,7 +49,7 @@ function decodeChecked(value: unknown, where: string, dtype: "float64" | "uint8"
   return bytes;
 }
 
-/** Encode a number exactly: finite numbers as they are, others as {nonFinite}. */
+/** Encode a number (any unit, copied as is) exactly: finite numbers as they are, others as {nonFinite}. */
 export function encodeNumber(x: number): number | { nonFinite: string } {
   return Number.isFinite(x) ? x : { nonFinite: String(x) };
 }

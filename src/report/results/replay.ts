@@ -93,6 +93,7 @@ export function replayResults(
 /**
  * Compare two results of the same fit: convergence, point and parameter counts, each
  * parameter's value and standard error, χ², log-likelihood, AIC, BIC, and warning codes.
+ * Tolerances: `relative` and `stderrRelative` are relative changes, `fraction` is in standard errors (all dimensionless).
  */
 export function compareResults(
   label: string,
