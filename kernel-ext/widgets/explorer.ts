@@ -91,7 +91,7 @@ export class Explorer {
     this.profile = profile;
     this.model = typeof options.model === "object" ? options.model : getModel(options.model ?? "two-slit");
     const params = paramsForModel(this.model);
-    const start = { ...this.autoStart(), ...(options.start ?? {}) };
+    const start = { ...this.autoStart(options.start ?? {}), ...(options.start ?? {}) };
     for (const [name, value] of Object.entries(start)) {
       if (!params[name]) throw new InvalidArgumentError("start", name, `a parameter of model ${this.model.id}: ${Object.keys(params).join(", ")}`);
       params[name].value = value;
@@ -189,9 +189,10 @@ export class Explorer {
     this.widget.close();
   }
 
-  private autoStart(): Record<string, number> {
+  /** Automatic starting values; the known wavelength and distance come from `given` when set there. */
+  private autoStart(given: Record<string, number>): Record<string, number> {
     if (!supportsAutoStart(this.model)) return {};
-    const value = (name: string) => this.model.parameters.find((p) => p.name === name)!.default;
+    const value = (name: string) => given[name] ?? this.model.parameters.find((p) => p.name === name)!.default;
     const [first] = autoStartCandidates(this.profile.x, this.profile.y, value("wavelength"), value("distance"));
     return first ?? {};
   }

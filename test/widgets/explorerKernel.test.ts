@@ -39,6 +39,20 @@ describe("explorer (kernel side)", () => {
     expect(state.params.separation.value).toBe(0.497e-3);
   });
 
+  it("explorer(profile, {start: {wavelength, distance}}) starts the sliders from the automatic start for that geometry", () => {
+    kernel = installFakeKernel();
+    // A 680 nm source 0.75 m from the slits: with the model defaults (632.8 nm, 1 m) the same
+    // fringe spacing would mean a separation 0.75·632.8/680 ≈ 0.70 of the true one.
+    const model = getModel("two-slit");
+    const geometry = { wavelength: 680e-9, distance: 0.75 };
+    const profile = simulateProfile(model, paramVector(model, { ...truth, ...geometry }), pixelPositions(1024, 22e-6), { noise: "poisson", seed: 12 });
+    explorer(profile, { start: geometry });
+    const state = kernel.messages.find((m) => m.msgType === "comm_open")!.content.data.state;
+    // The automatic start reads the fringe frequency from the spectrum: within 5 % of the truth.
+    expect(Math.abs(state.params.separation.value / truth.separation - 1)).toBeLessThan(0.05);
+    expect(state.params.wavelength.value).toBe(680e-9);
+  });
+
   it("a frontend {action: 'fit'} runs the fitter with progress and puts the result in explorer.result and the state", async () => {
     kernel = installFakeKernel();
     const profile = b1Profile();
