@@ -36,24 +36,7 @@ export function twoSlitPattern(options: { smallAngle?: boolean } = {}): PointPat
   // locals, so the optimiser keeps every intermediate in registers (same formulas as
   // geometry.ts and sinc.ts, including sinc's series below |β| < 1e-3).
   const one = new Float64Array(1), oneValue = new Float64Array(1);
-  const valuesAt = (positions: Float64Array, count: number, values: Float64Array): void => {
-    const c = center, L = distance, L2 = distance * distance, kHalfWidth = 0.5 * k * width, kSep = k * separation;
-    const A = amplitude, V = visibility, phi = phase;
-    for (let t = 0; t < count; t++) {
-      const u = positions[t]! - c;
-      const s = smallAngle ? u / L : u / Math.sqrt(u * u + L2);
-      const beta = kHalfWidth * s;
-      let sincValue: number;
-      if (Math.abs(beta) < 1e-3) {
-        const b2 = beta * beta;
-        sincValue = 1 - (b2 / 6) * (1 - b2 / 20);
-      } else {
-        sincValue = Math.sin(beta) / beta;
-      }
-      values[t] = A * (sincValue * sincValue) * (1 + V * Math.cos(kSep * s + phi));
-    }
-  };
-  // Per-node scratch of the gradient kernel, grown on demand (the detector passes ≤ ~1024 nodes).
+  // Per-node scratch of the kernels, grown on demand (the detector passes ≤ ~1024 nodes).
   let size = 0;
   let sines = new Float64Array(0), dsdus = new Float64Array(0), dsdLs = new Float64Array(0);
   let betas = new Float64Array(0), gammas = new Float64Array(0);
@@ -62,6 +45,31 @@ export function twoSlitPattern(options: { smallAngle?: boolean } = {}): PointPat
     if (count <= size) return;
     size = Math.max(count, 1024);
     [sines, dsdus, dsdLs, betas, gammas, sinB, cosB, sinG, cosG] = Array.from({ length: 9 }, () => new Float64Array(size));
+  };
+  // Value only: the same passes without the gradient (sinCosInto beats a lone Math.sin).
+  const valuesAt = (positions: Float64Array, count: number, values: Float64Array): void => {
+    reserve(count);
+    const c = center, L = distance, L2 = distance * distance, kHalfWidth = 0.5 * k * width, kSep = k * separation;
+    const A = amplitude, V = visibility, phi = phase;
+    for (let t = 0; t < count; t++) {
+      const u = positions[t]! - c;
+      const s = smallAngle ? u / L : u / Math.sqrt(u * u + L2);
+      betas[t] = kHalfWidth * s;
+      gammas[t] = kSep * s + phi;
+    }
+    sinCosInto(betas, count, sinB, cosB);
+    sinCosInto(gammas, count, sinG, cosG);
+    for (let t = 0; t < count; t++) {
+      const beta = betas[t]!;
+      let sincValue: number;
+      if (Math.abs(beta) < 1e-3) {
+        const b2 = beta * beta;
+        sincValue = 1 - (b2 / 6) * (1 - b2 / 20);
+      } else {
+        sincValue = sinB[t]! / beta;
+      }
+      values[t] = A * (sincValue * sincValue) * (1 + V * cosG[t]!);
+    }
   };
   // Gradient of node t in grads[9t … 9t + 8]. Three passes: geometry and phases; sin and cos
   // of β and γ with one shared argument reduction each (sinCosInto); then values and gradients.
