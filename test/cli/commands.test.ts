@@ -16,6 +16,8 @@ function expectOneLineError(stderr: string, file: string): void {
   expect(stderr).not.toMatch(/\n\s+at /);
 }
 
+// Exit codes are the documented contract of the command (fringekit --help): 0 success, 1 a fit
+// did not converge, 2 bad input or usage.
 describe("fringekit --help / models", () => {
   it("fringekit --help prints the usage with every command and the laser-safety caution", () => {
     const { code, stdout } = runCli(["--help"]);

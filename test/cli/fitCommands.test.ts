@@ -21,6 +21,8 @@ function writeLine(name: string, seed: number): string {
   return path;
 }
 
+// Exit codes are the documented contract of the command (fringekit --help): 0 success, 1 a fit
+// did not converge, 2 bad input or usage. Counts (points, rows, files) are those of the inputs made here.
 let line: string;
 beforeAll(() => {
   line = writeLine("line.csv", 11);

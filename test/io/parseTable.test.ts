@@ -4,6 +4,8 @@ import { parseTable, readTable, sha256Hex } from "../../src/index.js";
 
 const corpus = (name: string): Uint8Array => new Uint8Array(readFileSync(new URL(`./corpus/${name}`, import.meta.url)));
 
+// Expected numbers are the cells of the corpus files (written by corpus/make_corpus.py) or of the
+// inline tables, converted to metres with the SI prefixes (BIPM SI Brochure, 9th ed., Table 7).
 describe("parseTable(text, options)", () => {
   it("readTable(good.csv) converts mm to m, finds σ, detects counts and hashes the bytes", () => {
     const bytes = corpus("good.csv");

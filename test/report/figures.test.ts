@@ -28,7 +28,7 @@ describe("fitFigure(profile, result, options)", () => {
   it("has data, excluded points, model and residuals, with units on both axes", () => {
     const fig = fitFigure(profile, result);
     expect(fig.data.map((t) => t.name)).toEqual(["data", "excluded", "two-slit fit", "residuals"]);
-    expect((fig.data[1].x as unknown[]).length).toBe(24);
+    expect((fig.data[1].x as unknown[]).length).toBe(24); // the 24 pixels figureExamples masks (600–623)
     expect(JSON.stringify(fig.layout.xaxis2)).toContain("Position <i>x</i> (mm)");
     expect(JSON.stringify(fig.layout.yaxis)).toContain("Intensity <i>I</i> (10<sup>3</sup> counts)");
     expect(fig.layout.meta).toMatchObject({ kind: "fit", widthMm: 85, heightMm: 70, fontPt: 8 });
@@ -56,7 +56,7 @@ describe("comparisonFigure / coherenceScanFigure / correlationFigure / profileLi
     const lines = fig.data.filter((t) => t.mode === "lines");
     const styles = lines.map((t) => JSON.stringify(t.line));
     expect(new Set(styles.slice(0, 1).concat(styles.slice(2, 3))).size).toBe(2);
-    expect((lines[1].y as (number | null)[])[610]).toBeNull();
+    expect((lines[1].y as (number | null)[])[610]).toBeNull(); // pixel 610 is inside the masked run 600–623 of figureExamples
     expect(() => comparisonFigure(profile, [...fits, ...fits, ...fits])).toThrow(/1 to 4 labelled fits/);
   });
   it("confidenceBand(model, result, x) is symmetric, z = 1.959964 at 95 % (normal quantile, A&S 26.2)", () => {
@@ -80,7 +80,7 @@ describe("comparisonFigure / coherenceScanFigure / correlationFigure / profileLi
   it("correlationFigure prints every coefficient and refuses a one-parameter fit", () => {
     const { result } = fitExample();
     const fig = correlationFigure(result);
-    expect((fig.layout.annotations as unknown[]).length).toBe(49);
+    expect((fig.layout.annotations as unknown[]).length).toBe(49); // 7 free parameters → 7 × 7 coefficients (hand count)
     const one = { ...result, freeNames: ["amplitude"], correlation: new Float64Array([1]) };
     expect(() => correlationFigure(one)).toThrow(/at least two free parameters/);
   });
@@ -88,6 +88,6 @@ describe("comparisonFigure / coherenceScanFigure / correlationFigure / profileLi
     const fig = profileLikelihoodFigure(profileCurvesExample());
     const levels = (fig.layout.meta.thresholds as number[]).map((t) => t.toFixed(3));
     expect(levels).toEqual(["1.000", "3.841"]);
-    expect(fig.layout.meta.best).toEqual(["(500.00 ± 0.40) µm", "0.8500 ± 0.0040"]);
+    expect(fig.layout.meta.best).toEqual(["(500.00 ± 0.40) µm", "0.8500 ± 0.0040"]); // the example's optima and σ, GUM 7.2.6 rounding by hand
   });
 });

@@ -9,6 +9,8 @@ function lightness(hex: string): number {
   return y > 216 / 24389 ? 116 * Math.cbrt(y) - 16 : (24389 / 27) * y;
 }
 
+// L* gaps (10 between series, 40 for excluded points, ...) are design margins for greyscale
+// print chosen here (common practice: about 10 L* is a step readers tell apart).
 describe("palette", () => {
   it("lightness('#ffffff') is 100 and lightness('#000000') is 0 (CIE 1976 definition)", () => {
     expect(lightness("#ffffff")).toBeCloseTo(100, 6);

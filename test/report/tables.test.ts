@@ -80,7 +80,7 @@ describe("fitReport(result, options)", () => {
   });
   it("fitReport(...).toMarkdown() has one table line per row with columns + 1 bare pipes", () => {
     const lines = report.toMarkdown().split("\n").filter((l) => l.startsWith("|"));
-    expect(lines.length).toBe(2 + result.parameters.length + 9);
+    expect(lines.length).toBe(2 + result.parameters.length + 9); // header + rule + parameters + section and 8 statistics rows (hand count of fitTable)
     for (const l of lines) expect(l.replace(/\\\|/g, "").split("|").length - 1).toBe(3);
     expect(report.toMarkdown()).not.toMatch(/<script/);
   });
@@ -144,7 +144,7 @@ describe("comparisonReport(fits, options)", () => {
     const r = comparisonReport([{ label: HOSTILE[2], result: a }, { label: "near <b>", result: b }], { verdict: HOSTILE[0] });
     expect(r.toHtml()).toContain("near &lt;b&gt;");
     expect(r.toHtml()).not.toContain("<script");
-    expect(r.toMarkdown().split("\n").filter((l) => l.startsWith("|")).length).toBe(4);
+    expect(r.toMarkdown().split("\n").filter((l) => l.startsWith("|")).length).toBe(4); // header + rule + 2 fits
     if (existsSync(PDFLATEX)) expect(compileLatex(r.toLatexDocument()).log).toMatch(/Output written/);
   });
 });

@@ -39,8 +39,9 @@ describe("propagateDerived and fringe geometry", () => {
     const zero = maxima.find((m) => m.order === 0)!;
     const s = (-0.3 / (2 * Math.PI) * 632.8e-9) / 0.5e-3;
     expectClose(zero.position.value, 2e-5 + s / Math.sqrt(1 - s * s), 1e-12, "x_0");
+    // spacing λL/d = 632.8 nm · 1 m / 0.5 mm = 1.27 mm, so ±3 mm holds orders −2…2 (hand count)
     expect(maxima.map((m) => m.order)).toEqual([-2, -1, 0, 1, 2]);
-    expect(zero.position.uncertainty).toBeGreaterThan(1e-7 * 0.99);
+    expect(zero.position.uncertainty).toBeGreaterThan(1e-7 * 0.99); // never below the centre's own standard error, 1e-7 m in this fit
   });
 });
 
@@ -56,7 +57,7 @@ describe("measuredExtrema", () => {
     for (let seed = 1; seed <= 6; seed++) {
       const profile = simulateProfile(model, params, x, { noise: "poisson", seed });
       const extrema = measuredExtrema(profile, { ...fit, model: new Float64Array(x.length) });
-      expect(extrema.length).toBeGreaterThan(8);
+      expect(extrema.length).toBeGreaterThan(8); // 8.25 mm of line over half-spacings of 0.63 mm: about 13 extrema (hand count)
       for (const e of extrema) {
         // Truth: the extremum of the noise-free mean on a 42 nm grid near the measured one.
         let best = -1;
@@ -102,7 +103,7 @@ describe("coherence", () => {
       const vis = orders.map((m) => ({ value: 0.9 * Math.exp(-(((Math.PI * m * dl) / lambda) ** 2) / (4 * Math.LN2)) + u * rng.normal(), uncertainty: u }));
       const [bandwidth, v0] = bandwidthFromVisibilityDecay(orders, vis, { value: lambda, uncertainty: 0 });
       if (Math.abs(bandwidth.value - dl) < 2 * bandwidth.uncertainty) inside++;
-      expect(Math.abs(v0.value - 0.9)).toBeLessThan(5 * v0.uncertainty);
+      expect(Math.abs(v0.value - 0.9)).toBeLessThan(5 * v0.uncertainty); // within a few standard uncertainties (common practice)
     }
     // ±2u covers 95 % for a Gaussian estimate; 40 runs, allow sampling scatter.
     expect(inside / runs).toBeGreaterThan(0.85);
@@ -120,14 +121,14 @@ describe("localVisibilities", () => {
     for (let seed = 1; seed <= seeds; seed++) {
       const profile = simulateProfile(model, paramVector(model, bench), x, { noise: "poisson", seed });
       const local = localVisibilities(profile, { ...fitLike, model: new Float64Array(x.length) });
-      expect(local.length).toBeGreaterThan(14);
+      expect(local.length).toBeGreaterThan(14); // 22.5 mm of line over a 1.2 mm fringe spacing: about 18 orders (hand count)
       const [bandwidth, v0] = bandwidthFromVisibilityDecay(local.map((l) => l.order),
         local.map((l) => ({ value: l.visibility, uncertainty: l.uncertainty })), { value: 600e-9, uncertainty: 0 });
       if (Math.abs(bandwidth.value - 30e-9) < 2 * bandwidth.uncertainty) inside++;
       expect(Math.abs(bandwidth.value - 30e-9)).toBeLessThan(4 * bandwidth.uncertainty);
       expect(Math.abs(v0.value - 0.9)).toBeLessThan(4 * v0.uncertainty);
     }
-    expect(inside).toBeGreaterThanOrEqual(4);
+    expect(inside).toBeGreaterThanOrEqual(4); // ±2u covers 95 %: 4 or 5 of 5 seeds expected (common practice)
   });
 });
 

@@ -13,7 +13,7 @@ describe("residual tests", () => {
     expect(b.runs).toBe(2);
     expectClose(b.z, -3 / Math.sqrt(12 / 7), 1e-14, "z");
     expect(b.pTooFew).toBeLessThan(0.02);
-    expect(runsTest([1, NaN, 0, -1, 1]).runs).toBe(3);
+    expect(runsTest([1, NaN, 0, -1, 1]).runs).toBe(3); // NaN skipped, 0 counted with the negatives: + − − + → 3 runs (hand count)
   });
   it("durbinWatson(r) and autocorrelation(r, 1) on sequences computed by hand", () => {
     // Alternating ±1: Σ(Δr)² = 3·4 = 12, Σ r² = 4, d = 3 (Durbin & Watson 1950 definition).
@@ -34,6 +34,7 @@ describe("residual tests", () => {
     expect(white.noiseFloor).toBeLessThan(1.3);
     const wavy = noise.map((v, i) => v + 0.3 * Math.cos(2 * Math.PI * f * x[i] + 1));
     const found = periodicityAt(x, wavy, f);
+    // amplitude 0.3 over 2000 points: power ≈ n·A²/(4·var) = 2000·0.09/(4·1.045) ≈ 43 (Scargle 1982 normalisation; hand estimate), so > 20 and p < 1e-6
     expect(found.pValue).toBeLessThan(1e-6);
     expect(found.ratio).toBeGreaterThan(20);
   });
@@ -45,6 +46,7 @@ describe("residual tests", () => {
       const rng = seeded(1000 + s);
       sum += lombScarglePower(x, Float64Array.from({ length: 300 }, () => rng.normal()), 1234.5);
     }
+    // the mean of 400 Exp(1) draws has σ = 1/√400 = 0.05: ±0.15 is three σ (common practice)
     expect(sum / 400).toBeGreaterThan(0.85);
     expect(sum / 400).toBeLessThan(1.15);
   });
