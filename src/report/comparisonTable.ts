@@ -9,7 +9,7 @@ import { compareFits } from "../stats/compareFits.js";
 import type { ComparisonResult, Criterion } from "../stats/comparisonTypes.js";
 import type { NestedTestResult } from "../stats/nested.js";
 import { pText } from "../stats/residualDiagnostics.js";
-import { fixed } from "./fitTable.js";
+import { fixed, NOISE_WORDS } from "./fitTable.js";
 import type { ReportTable, ReportTableRow } from "./table.js";
 
 /** One fit in a comparison, with the label it is shown under (user text, escaped on output). */
@@ -107,7 +107,7 @@ export function comparisonTable(fits: readonly LabelledFit[] | ComparisonResult,
   const n = comparison ? comparison.rows[0].n : (fits as readonly LabelledFit[])[0].result.statistics.n;
   const noise = comparison ? comparison.noise : (fits as readonly LabelledFit[])[0].result.noise;
   const name = CRITERION_NAMES[criterion];
-  const notes = [`${ranking.length} fits of the same ${n} points, ${noise} noise model; best ${name} first.`];
+  const notes = [`${ranking.length} fits of the same ${n} points, noise model ${NOISE_WORDS[noise] ?? noise}; best ${name} first.`];
   if (ranking.some((r) => !r.converged)) notes.push("Fits that did not converge are listed last with weight 0.");
   for (const t of options.tests ?? []) notes.push(testNote(t));
   if (options.verdict) notes.push(options.verdict);

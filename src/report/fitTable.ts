@@ -34,7 +34,8 @@ const STAT_LABELS: Record<string, ParameterLabel> = {
   lnL: { text: "ln L", html: "ln <i>L</i>", latex: "$\\ln L$" },
 };
 
-const NOISE_WORDS: Record<string, string> = {
+/** How each noise model is named in reports, e.g. "Poisson (deviance)". */
+export const NOISE_WORDS: Record<string, string> = {
   gaussian: "Gaussian (least squares)",
   poisson: "Poisson (deviance)",
   robust: "robust (outliers down-weighted)",
