@@ -7,6 +7,7 @@ import type { FitResult } from "../../src/fit/types.js";
 import type { Model } from "../../src/physics/model.js";
 import type { Profile } from "../../src/profile.js";
 import { confidenceBand } from "../../src/report/figures/confidenceBand.js";
+import { coherenceScanGrid } from "../../src/report/figures/coherenceScanFigure.js";
 import type { ScanQuantity } from "../../widgets/src/coherenceScanModel.js";
 import { display, MIME_BUNDLE, type MimeBundle } from "../display.js";
 import { WidgetModel } from "../widget/model.js";
@@ -23,6 +24,8 @@ interface ScanState extends Record<string, unknown> {
   curve_visibility: TypedArray | null;
   band_lower: TypedArray | null;
   band_upper: TypedArray | null;
+  band_level: number;
+  model_id: string;
   source_label: string;
   quantities: ScanQuantity[];
 }
@@ -30,7 +33,7 @@ interface ScanState extends Record<string, unknown> {
 export interface CoherenceScanOptions {
   /** Confidence level of the band (default 0.95). */
   level?: number;
-  /** Points of the drawn curve (default 200). */
+  /** Points of the drawn curve (default 300, as the paper figure). */
   curvePoints?: number;
   /** Legend text of the source model (default: the model description). */
   sourceLabel?: string;
@@ -48,15 +51,15 @@ export class CoherenceScanWidget {
    */
   constructor(scan: Profile, result: FitResult, model: Model, options: CoherenceScanOptions = {}) {
     if (scan.x.length < 2) throw new InvalidArgumentError("scan", scan.x.length, "two or more separations");
-    const points = options.curvePoints ?? 200;
-    const top = Math.max(...scan.x) * 1.1;
-    const grid = Float64Array.from({ length: points }, (_, i) => (top * i) / (points - 1));
+    // The paper figure's grid, so the widget's export is the figure the headless exporter makes.
+    const grid = coherenceScanGrid(scan.x, options.curvePoints ?? 300);
     const band = confidenceBand(model, result, grid, options.level ?? 0.95);
     this.quantities = result.parameters.filter((p) => !p.fixed).map((p) => ({ name: p.name, unit: p.unit, value: p.value, stderr: Number.isFinite(p.stderr) ? p.stderr : null }));
     this.widget = new WidgetModel<ScanState>(widgetIdentity("CoherenceScan"), {
       title: options.title ?? "Coherence scan",
       separation: scan.x, visibility: scan.y, visibility_err: scan.sigma ?? null,
       curve_separation: grid, curve_visibility: band.center, band_lower: band.lower, band_upper: band.upper,
+      band_level: band.level, model_id: result.modelId,
       source_label: options.sourceLabel ?? model.description,
       quantities: this.quantities,
     }, { serializers: Object.fromEntries(["separation", "visibility", "visibility_err", "curve_separation", "curve_visibility", "band_lower", "band_upper"].map((k) => [k, typedArraySerializer])) });

@@ -14,7 +14,8 @@ export interface ScanQuantity {
 /**
  * Visibility against slit separation: measured points (`separation` in m, `visibility`,
  * optional `visibility_err`), the fitted source model on a fine grid (`curve_separation`,
- * `curve_visibility`) with its confidence band (`band_lower`, `band_upper`).
+ * `curve_visibility`) with its confidence band (`band_lower`, `band_upper`) at level
+ * `band_level`; `model_id` names the fitted coherence model.
  */
 export class CoherenceScanModel extends FringekitModel {
   override defaults() {
@@ -29,6 +30,8 @@ export class CoherenceScanModel extends FringekitModel {
       curve_visibility: null,
       band_lower: null,
       band_upper: null,
+      band_level: 0.95,
+      model_id: "",
       source_label: "",
       quantities: [],
     };

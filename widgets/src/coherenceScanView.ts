@@ -2,6 +2,8 @@
  * Coherence scan view: measured fringe visibility against slit separation with error bars,
  * the fitted source model and its confidence band, and the fitted source quantities.
  */
+import { coherenceBandFigure } from "../../src/report/figures/coherenceScanFigure.js";
+import type { FigureSpec } from "../../src/report/figures/figureSpec.js";
 import type { ShapedArray } from "./arrayWire.js";
 import { h, setChildren } from "./dom.js";
 import { displayUnitFor, formatNumber, formatWithUncertainty } from "./displayUnits.js";
@@ -14,6 +16,25 @@ export class CoherenceScanView extends FigureView {
 
   protected exportName(): string {
     return "fringekit-coherence-scan";
+  }
+
+  /**
+   * The paper figure of the scan (coherenceBandFigure: what coherenceScanFigure draws in the
+   * headless exporter) from the band the kernel computed on the paper figure's grid.
+   */
+  paperFigures(): FigureSpec[] {
+    const get = (name: string) => (this.model.get(name) as ShapedArray<Float64Array> | null)?.data ?? null;
+    const sep = get("separation");
+    const vis = get("visibility");
+    const grid = get("curve_separation");
+    const center = get("curve_visibility");
+    const lower = get("band_lower");
+    const upper = get("band_upper");
+    if (!sep || !vis || !grid || !center || !lower || !upper) return [];
+    const err = get("visibility_err");
+    const scan = { x: Float64Array.from(sep), y: Float64Array.from(vis), yUnit: "1", counts: false, ...(err ? { sigma: Float64Array.from(err) } : {}) };
+    const band = { center: Float64Array.from(center), lower: Float64Array.from(lower), upper: Float64Array.from(upper), level: Number(this.model.get("band_level")) || 0.95 };
+    return [coherenceBandFigure(scan, Float64Array.from(grid), band, (this.model.get("model_id") as string) || "source model")];
   }
 
   override render(): void {

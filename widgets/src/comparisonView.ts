@@ -2,11 +2,14 @@
  * Model comparison view: the profile with every fitted model overlaid, their residuals in a
  * panel below, and the comparison table (reduced χ², AIC, BIC, ΔAIC, Akaike weight) with the verdict.
  */
+import { comparisonFigure } from "../../src/report/figures/comparisonFigure.js";
+import type { FigureSpec } from "../../src/report/figures/figureSpec.js";
 import { row, type ShapedArray } from "./arrayWire.js";
 import { h, setChildren } from "./dom.js";
 import { displayUnitFor, formatNumber } from "./displayUnits.js";
 import { axis, baseLayout, FigureView } from "./figureView.js";
 import type { ComparisonRow } from "./comparisonModel.js";
+import { groupsOf } from "./paperExport.js";
 import { palette } from "./styles.js";
 
 /** Fixed decimals for everyday magnitudes, 3 significant digits in exponent form above 10⁵. */
@@ -20,6 +23,22 @@ export class ComparisonView extends FigureView {
 
   protected exportName(): string {
     return "fringekit-comparison";
+  }
+
+  /**
+   * Paper figures of the comparison (comparisonFigure, as the headless exporter draws it):
+   * the fits in table order, four to a figure (more would not stay readable in print).
+   */
+  paperFigures(): FigureSpec[] {
+    const x = this.model.get("x") as ShapedArray<Float64Array> | null;
+    const y = this.model.get("y") as ShapedArray<Float64Array> | null;
+    const curves = this.model.get("curves") as ShapedArray<Float64Array> | null;
+    const resid = this.model.get("residuals") as ShapedArray<Float64Array> | null;
+    const table = this.model.get("table") as ComparisonRow[];
+    if (!x || !y || !curves || !resid || table.length === 0) return [];
+    const profile = { x: Float64Array.from(x.data), y: Float64Array.from(y.data), yUnit: this.model.get("y_unit") as string, counts: false };
+    const fits = table.map((r, i) => ({ label: r.label, result: { modelId: r.modelId, model: row(curves, i), residuals: row(resid, i) } }));
+    return groupsOf(fits, 4).map((group) => comparisonFigure(profile, group));
   }
 
   override render(): void {

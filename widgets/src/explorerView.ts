@@ -5,6 +5,9 @@
  * the browser with fringekit's own physics code; only Fit goes to the kernel.
  */
 import type { Model } from "../../src/physics/model.js";
+import type { Profile } from "../../src/profile.js";
+import { fitFigure } from "../../src/report/figures/fitFigure.js";
+import type { FigureSpec } from "../../src/report/figures/figureSpec.js";
 import type { ShapedArray } from "./arrayWire.js";
 import { modelById, modelIds } from "./catalog.js";
 import { h, setChildren } from "./dom.js";
@@ -35,9 +38,6 @@ export interface LocalFitRequest {
   noise: string;
   params: Record<string, ParamState>;
 }
-
-const TRACE_MODEL = 2;
-const TRACE_RESIDUAL = 4;
 
 export class ExplorerView extends FigureView {
   /** Set by the static-page renderer; used when the model has no kernel. */
@@ -306,14 +306,35 @@ export class ExplorerView extends FigureView {
     ]);
   }
 
-  /** Export with the live curve copied into the figure (the canvas layer is not part of it). */
-  override async exportImage(format: "svg" | "png"): Promise<void> {
-    await Plotly.restyle(this.plotEl, { x: [this.xShown, this.xShown], y: [this.curve, this.resid] }, [TRACE_MODEL, TRACE_RESIDUAL]);
-    try {
-      await super.exportImage(format);
-    } finally {
-      await Plotly.restyle(this.plotEl, { x: [[null], [null]], y: [[null], [null]] }, [TRACE_MODEL, TRACE_RESIDUAL]);
+  /**
+   * The paper figure of the current state: the profile with the current mask and window, and
+   * the fitted curve when a fit has arrived, else the slider model (legend "model (sliders)"),
+   * with normalised residuals below (fitFigure, as the headless exporter draws it).
+   */
+  paperFigures(): FigureSpec[] {
+    const x = this.array("x");
+    const y = this.array("y");
+    if (!x || !y) return [];
+    const n = x.data.length;
+    const sigma = this.array("sigma")?.data ?? null;
+    const fit = this.array("fit_curve");
+    const summary = this.model.get("result") as FitSummary | null;
+    const fitted = fit !== null && fit.data.length === n && summary !== null;
+    let curve: Float64Array;
+    if (fitted) curve = Float64Array.from(fit.data);
+    else {
+      this.computePreview();
+      curve = this.curve.slice();
     }
+    const used = this.used.length === n ? this.used.slice() : new Uint8Array(n).fill(1);
+    const resid = residuals(y.data as Float64Array, curve, sigma as Float64Array | null, this.poisson(), used, new Float64Array(n));
+    const profile: Profile = {
+      x: Float64Array.from(x.data), y: Float64Array.from(y.data), mask: used,
+      yUnit: this.model.get("y_unit") as string, counts: this.model.get("counts") === true,
+      ...(sigma ? { sigma: Float64Array.from(sigma) } : {}),
+    };
+    const modelId = fitted ? summary.modelId : (this.model.get("model_id") as string);
+    return [fitFigure(profile, { modelId, model: curve, residuals: resid }, fitted ? {} : { modelLabel: "model (sliders)" })];
   }
 
   private async redraw(): Promise<void> {

@@ -4,7 +4,9 @@
  */
 import { DOMWidgetView } from "@jupyter-widgets/base";
 import Plotly from "plotly.js-dist-min";
+import type { FigureSpec } from "../../src/report/figures/figureSpec.js";
 import { h } from "./dom.js";
+import { downloadPaperFigure } from "./paperExport.js";
 import { ensureStyles } from "./styles.js";
 
 /** Plotly options every widget figure shares (no plotly logo, no cloud links). */
@@ -63,26 +65,29 @@ export abstract class FigureView extends DOMWidgetView {
     this.plotted = true;
   }
 
-  /** Save the figure from the browser (Plotly renders SVG or PNG and triggers a download). */
+  /**
+   * The paper figures of the view's current state, built by the src/report/figures builders
+   * (the same descriptions the headless exporter renders), at their journal sizes.
+   */
+  abstract paperFigures(): FigureSpec[];
+
+  /**
+   * Save the paper figures of the current state from the browser (SVG sized in mm, or PNG at
+   * 300 dpi), one file each; the on-screen figure is left as it is.
+   */
   async exportImage(format: "svg" | "png"): Promise<void> {
-    const targets = this.exportTargets();
-    for (const [i, target] of targets.entries()) {
-      await Plotly.downloadImage(target, {
-        format,
-        filename: targets.length > 1 ? `${this.exportName()}-${i + 1}` : this.exportName(),
-        width: Math.max(target.clientWidth, 640),
-        height: Math.max(target.clientHeight, 400),
-        scale: format === "png" ? 2 : 1,
-      });
+    const figures = this.paperFigures();
+    for (const [i, figure] of figures.entries()) {
+      await downloadPaperFigure(this.el.ownerDocument, figure, format, figures.length > 1 ? `${this.exportName()}-${i + 1}` : this.exportName());
     }
   }
 
-  /** Plot elements the export action saves (one file each). */
+  /** Plot elements the view draws with plotly (purged on remove). */
   protected exportTargets(): HTMLElement[] {
     return [this.plotEl];
   }
 
-  /** The figure as an image data URL (for tests and notebook exports). */
+  /** The on-screen figure as an image data URL (for tests and notebook exports). */
   imageUrl(format: "svg" | "png"): Promise<string> {
     return Plotly.toImage(this.plotEl, { format, width: 800, height: 500 });
   }

@@ -3,11 +3,15 @@
  * the interval threshold and the best fit marked) and the correlation matrix as a heat map.
  */
 import Plotly from "plotly.js-dist-min";
+import { correlationFigure } from "../../src/report/figures/correlationFigure.js";
+import type { FigureSpec } from "../../src/report/figures/figureSpec.js";
+import { profileLikelihoodFigure } from "../../src/report/figures/profileLikelihoodFigure.js";
 import { row, type ShapedArray } from "./arrayWire.js";
 import { h, setChildren } from "./dom.js";
 import { displayUnitFor, formatNumber } from "./displayUnits.js";
 import { axis, baseLayout, FigureView, plotConfig } from "./figureView.js";
 import type { ProfiledParameter } from "./uncertaintyModel.js";
+import { groupsOf } from "./paperExport.js";
 import { palette } from "./styles.js";
 
 export class UncertaintyView extends FigureView {
@@ -20,6 +24,31 @@ export class UncertaintyView extends FigureView {
 
   protected override exportTargets(): HTMLElement[] {
     return this.corrEl ? [this.plotEl, this.corrEl] : [this.plotEl];
+  }
+
+  /**
+   * Paper figures of the current state, as the headless exporter draws them: the
+   * profile-likelihood panels (profileLikelihoodFigure, four parameters to a figure), then the
+   * correlation matrix (correlationFigure) when there are two or more free parameters.
+   */
+  paperFigures(): FigureSpec[] {
+    const params = this.model.get("parameters") as ProfiledParameter[];
+    const grid = this.model.get("grid") as ShapedArray<Float64Array> | null;
+    const delta = this.model.get("delta") as ShapedArray<Float64Array> | null;
+    const figures: FigureSpec[] = [];
+    if (grid && delta && params.length > 0) {
+      const curves = params.map((p, i) => ({
+        name: p.name, unit: p.unit, values: row(grid, i), deltaObjective: row(delta, i), best: p.best,
+        ...(p.stderr !== null ? { stderr: p.stderr } : {}),
+      }));
+      for (const group of groupsOf(curves, 4)) figures.push(profileLikelihoodFigure(group));
+    }
+    const names = this.model.get("free_names") as string[];
+    const corr = this.model.get("correlation") as ShapedArray<Float64Array> | null;
+    if (corr && names.length >= 2) {
+      figures.push(correlationFigure({ modelId: (this.model.get("model_id") as string | undefined) ?? "", freeNames: names, correlation: Float64Array.from(corr.data) }));
+    }
+    return figures;
   }
 
   override render(): void {

@@ -7,7 +7,7 @@ import type { FitResult } from "../../fit/types.js";
 import type { Model } from "../../physics/model.js";
 import type { Profile } from "../../profile.js";
 import { lengthAxis } from "./axes.js";
-import { confidenceBand } from "./confidenceBand.js";
+import { confidenceBand, type Band } from "./confidenceBand.js";
 import { plainArray, plotlyText, STATIC_CONFIG, withMimeBundle, type FigureSpec } from "./figureSpec.js";
 import { axisStyle, baseLayout, baseLegend, resolveSize, type FigureSize } from "./journal.js";
 import { BAND_FILL, INK, seriesStyle } from "./palette.js";
@@ -31,14 +31,38 @@ export interface CoherenceScanFigureOptions extends FigureSize {
  */
 export function coherenceScanFigure(scan: Profile, result: FitResult, model: Model, options: CoherenceScanFigureOptions = {}): FigureSpec {
   if (scan.x.length === 0) throw new InvalidArgumentError("scan", "no points", "a coherence scan with at least one separation");
-  const size = resolveSize(options, 60);
-  const count = options.curvePoints ?? 300;
+  const grid = coherenceScanGrid(scan.x, options.curvePoints ?? 300);
+  const band = confidenceBand(model, result, grid, options.level ?? 0.95);
+  return coherenceBandFigure(scan, grid, band, result.modelId, options);
+}
+
+/**
+ * The separations (m) the fitted curve of a coherence scan is drawn at: `count` points from
+ * zero to 8 % beyond the largest measured separation.
+ */
+export function coherenceScanGrid(separations: ArrayLike<number>, count = 300): Float64Array {
   if (!Number.isInteger(count) || count < 10 || count > 100_000) throw new InvalidArgumentError("curvePoints", count, "an integer from 10 to 100000");
   let largest = 0;
-  for (const v of scan.x) largest = Math.max(largest, v);
+  for (let i = 0; i < separations.length; i++) largest = Math.max(largest, separations[i]);
   const grid = new Float64Array(count);
   for (let i = 0; i < count; i++) grid[i] = (1.08 * largest * i) / (count - 1);
-  const band = confidenceBand(model, result, grid, options.level ?? 0.95);
+  return grid;
+}
+
+/**
+ * The coherence-scan figure from a band already computed at `grid` (m), e.g. the one a widget
+ * holds: what coherenceScanFigure draws once it has the band.
+ * @param scan    Profile with x = slit separation (m), y = visibility (1)
+ * @param grid    separations (m) of the band
+ * @param band    fitted curve and confidence band at `grid` (visibility, 1)
+ * @param modelId id of the fitted coherence model (for the default legend name and layout.meta)
+ */
+export function coherenceBandFigure(scan: Profile, grid: Float64Array, band: Band, modelId: string, options: CoherenceScanFigureOptions = {}): FigureSpec {
+  if (scan.x.length === 0) throw new InvalidArgumentError("scan", "no points", "a coherence scan with at least one separation");
+  if (band.center.length !== grid.length || band.lower.length !== grid.length || band.upper.length !== grid.length) {
+    throw new InvalidArgumentError("band", `${band.center.length} points`, `a band at each of the ${grid.length} grid separations`);
+  }
+  const size = resolveSize(options, 60);
   const axis = lengthAxis(grid, "Slit separation", "d");
   const xs = plainArray(grid, axis.scale);
   const style = seriesStyle(0);
@@ -55,7 +79,7 @@ export function coherenceScanFigure(scan: Profile, result: FitResult, model: Mod
     },
     {
       type: "scatter", mode: "lines", x: xs, y: plainArray(band.center),
-      line: { color: style.color, width: 1.2, dash: style.dash }, name: plotlyText(options.modelLabel ?? `${result.modelId} fit`),
+      line: { color: style.color, width: 1.2, dash: style.dash }, name: plotlyText(options.modelLabel ?? `${modelId} fit`),
     },
     {
       type: "scatter", mode: "markers", name: "measured", x: plainArray(scan.x, axis.scale), y: plainArray(scan.y),
@@ -64,7 +88,7 @@ export function coherenceScanFigure(scan: Profile, result: FitResult, model: Mod
     },
   ];
   const layout = {
-    ...baseLayout(size, { kind: "coherence-scan", modelId: result.modelId, level: band.level, xUnit: axis.unit }),
+    ...baseLayout(size, { kind: "coherence-scan", modelId, level: band.level, xUnit: axis.unit }),
     xaxis: axisStyle(axis.title, { rangemode: "tozero" }),
     yaxis: axisStyle("Visibility <i>V</i>", { rangemode: "tozero" }),
     // Visibility falls with separation, so the upper right corner is free for the legend.

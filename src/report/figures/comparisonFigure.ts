@@ -4,9 +4,8 @@
  */
 import { InvalidArgumentError } from "../../errors.js";
 import type { Profile } from "../../profile.js";
-import type { LabelledFit } from "../comparisonTable.js";
 import { plainArray, plotlyText, STATIC_CONFIG, withMimeBundle, type FigureSpec } from "./figureSpec.js";
-import { residualPanelAxes, symmetricLimit } from "./fitFigure.js";
+import { residualPanelAxes, symmetricLimit, type FitCurves } from "./fitFigure.js";
 import { baseLayout, resolveSize, type FigureSize } from "./journal.js";
 import { seriesStyle } from "./palette.js";
 import { profileTraces } from "./profileTraces.js";
@@ -15,9 +14,9 @@ import { profileTraces } from "./profileTraces.js";
  * Comparison figure of up to four fits (more would not stay readable in print).
  * Default size: double column (180 mm) × 80 mm.
  * @param profile the profile all fits were made to (x in m)
- * @param fits    labelled FitResults of that profile
+ * @param fits    labelled FitResults of that profile (a LabelledFit, or any label with FitCurves)
  */
-export function comparisonFigure(profile: Profile, fits: readonly LabelledFit[], options: FigureSize = {}): FigureSpec {
+export function comparisonFigure(profile: Profile, fits: readonly { label: string; result: FitCurves }[], options: FigureSize = {}): FigureSpec {
   if (!Array.isArray(fits) || fits.length < 1 || fits.length > 4) {
     throw new InvalidArgumentError("fits", Array.isArray(fits) ? `${fits.length} fits` : fits, "1 to 4 labelled fits of the same profile");
   }

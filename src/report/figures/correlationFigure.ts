@@ -11,9 +11,10 @@ import { DIVERGING, INK } from "./palette.js";
 
 /**
  * Heat map of result.correlation (dimensionless, −1…1) with each value printed in its cell.
- * Default size: single column (85 mm) × 75 mm.
+ * Default size: single column (85 mm) × 75 mm. Takes a FitResult, or just its model id, free
+ * parameter names and correlation matrix (row-major, as in FitResult).
  */
-export function correlationFigure(result: FitResult, options: FigureSize = {}): FigureSpec {
+export function correlationFigure(result: Pick<FitResult, "modelId" | "freeNames" | "correlation">, options: FigureSize = {}): FigureSpec {
   const k = result.freeNames.length;
   if (k < 2) throw new InvalidArgumentError("result", `${k} free parameters`, "a fit with at least two free parameters");
   if (result.correlation.length !== k * k) {

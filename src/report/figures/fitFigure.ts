@@ -10,6 +10,12 @@ import { axisStyle, baseLayout, resolveSize, type FigureSize } from "./journal.j
 import { GUIDE, INK, seriesStyle } from "./palette.js";
 import { profileTraces } from "./profileTraces.js";
 
+/**
+ * The parts of a FitResult the fit and comparison figures draw: a full FitResult qualifies,
+ * and so does a model curve that was not fitted (e.g. a widget's slider model).
+ */
+export type FitCurves = Pick<FitResult, "modelId" | "model" | "residuals">;
+
 /** Options of fitFigure (size in mm, font in pt, legend names). */
 export interface FitFigureOptions extends FigureSize {
   /** Legend name of the model curve (user text, escaped); default "<model id> fit". */
@@ -23,9 +29,9 @@ export interface FitFigureOptions extends FigureSize {
  * Positions are shown with the SI prefix that suits them (usually mm); intensity in the
  * profile's unit. Default size: single column (85 mm) × 70 mm, 8 pt text.
  * @param profile the fitted Profile (x in m)
- * @param result  its FitResult (model and residuals at every x)
+ * @param result  its FitResult, or any FitCurves (model and normalised residuals at every x)
  */
-export function fitFigure(profile: Profile, result: FitResult, options: FitFigureOptions = {}): FigureSpec {
+export function fitFigure(profile: Profile, result: FitCurves, options: FitFigureOptions = {}): FigureSpec {
   checkLengths(profile, result);
   const size = resolveSize(options, 70);
   const points = profileTraces(profile, options.dataLabel ?? "data");
@@ -37,7 +43,8 @@ export function fitFigure(profile: Profile, result: FitResult, options: FitFigur
   data.push({
     type: "scatter", mode: "lines", name: plotlyText(options.modelLabel ?? `${result.modelId} fit`),
     x: plainArray(profile.x, axis.scale), y: plainArray(result.model, yAxis.scale),
-    line: { color: style.color, width: 1.2, dash: style.dash, shape: "linear" },
+    // Every model point drawn (no plotly path simplification): the vector file holds the curve itself.
+    line: { color: style.color, width: 1.2, dash: style.dash, shape: "linear", simplify: false },
     xaxis: "x", yaxis: "y",
   });
   const residuals = plainArray(result.residuals); // NaN where masked: not drawn
@@ -87,7 +94,7 @@ export function symmetricLimit(values: (number | null)[]): number {
   return Math.max(3, Math.ceil(largest * 1.1));
 }
 
-function checkLengths(profile: Profile, result: FitResult): void {
+function checkLengths(profile: Profile, result: FitCurves): void {
   const n = profile.x.length;
   if (profile.y.length !== n || result.model.length !== n || result.residuals.length !== n) {
     throw new InvalidArgumentError(
