@@ -5,6 +5,7 @@
 import { FringekitError } from "../src/index.js";
 import { fitFile } from "./commands/fit.js";
 import { fitJson, type FitJson } from "./fitJson.js";
+import { notConvergedText } from "./fitSettings.js";
 import type { ParsedArgs } from "./parseArgs.js";
 import { UsageError } from "./usageError.js";
 
@@ -27,7 +28,7 @@ export interface BatchRow {
 export function batchRow(path: string, modelId: string, args: ParsedArgs): BatchRow {
   try {
     const { loaded, result, warnings, assumed } = fitFile(path, modelId, args);
-    return { file: path, status: result.converged ? "ok" : "not-converged", message: result.message, fit: fitJson(result, loaded.profile.provenance, warnings, assumed) };
+    return { file: path, status: result.converged ? "ok" : "not-converged", message: result.converged ? result.message : notConvergedText(result), fit: fitJson(result, loaded.profile.provenance, warnings, assumed) };
   } catch (error) {
     const message = error instanceof FringekitError || error instanceof UsageError ? error.message : `internal error: ${error instanceof Error ? error.message : String(error)}`;
     return { file: path, status: "error", message, fit: null };

@@ -161,7 +161,7 @@ describe("fringekit fit/compare/batch --max-evaluations N: a fit that does not c
     const { code, stderr } = await runInProcess(["batch", line, "--max-evaluations", "2", "--jobs", "1", "--out", out]);
     expect(code).toBe(1);
     expect(stderr).toMatch(/1 file: 0 fitted, 1 did not converge, 0 could not be read or fitted/);
-    expect(readFileSync(out, "utf8").split("\n")[1]).toMatch(/line\.csv,not-converged,/);
+    expect(readFileSync(out, "utf8").split("\n")[1]).toMatch(/line\.csv,not-converged,stopped after \d+ model evaluations without converging; raise --max-evaluations/);
   });
 
   it("fringekit fit --max-evaluations 0 is a usage error", async () => {
