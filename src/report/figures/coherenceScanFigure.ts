@@ -9,7 +9,8 @@ import type { Profile } from "../../profile.js";
 import { lengthAxis } from "./axes.js";
 import { confidenceBand, type Band } from "./confidenceBand.js";
 import { plainArray, plotlyText, STATIC_CONFIG, withMimeBundle, type FigureSpec } from "./figureSpec.js";
-import { axisStyle, baseLayout, baseLegend, resolveSize, type FigureSize } from "./journal.js";
+import { axisStyle, baseLayout, resolveSize, type FigureSize } from "./journal.js";
+import { legendWhereFree } from "./legendPlacement.js";
 import { BAND_FILL, INK, seriesStyle } from "./palette.js";
 
 /** Options of coherenceScanFigure (size in mm, font in pt, band level). */
@@ -87,12 +88,32 @@ export function coherenceBandFigure(scan: Profile, grid: Float64Array, band: Ban
       ...(scan.sigma ? { error_y: { type: "data", array: plainArray(scan.sigma), color: INK, thickness: 0.75, width: 2 } } : {}),
     },
   ];
+  const xRange = [0, (xs[xs.length - 1] as number) ?? 1] as const;
+  const yRange = visibilityRange(data);
   const layout = {
     ...baseLayout(size, { kind: "coherence-scan", modelId, level: band.level, xUnit: axis.unit }),
-    xaxis: axisStyle(axis.title, { rangemode: "tozero" }),
-    yaxis: axisStyle("Visibility <i>V</i>", { rangemode: "tozero" }),
-    // Visibility falls with separation, so the upper right corner is free for the legend.
-    legend: { ...(baseLegend(size)), orientation: "v", x: 1, xanchor: "right", y: 1, yanchor: "top", bgcolor: "rgba(255,255,255,0.8)" },
+    xaxis: axisStyle(axis.title, { range: xRange }),
+    yaxis: axisStyle("Visibility <i>V</i>", { range: yRange }),
+    // A corner the curve, band and error bars leave free, else a row above the plot.
+    legend: legendWhereFree(data, xRange, yRange, size),
   };
   return withMimeBundle({ data, layout, config: { ...STATIC_CONFIG } });
+}
+
+/** y range of a coherence scan: from 0 (or the lowest point) to 6 % above the highest point, band or error bar. */
+function visibilityRange(data: readonly Record<string, unknown>[]): readonly [number, number] {
+  let low = 0, high = 0;
+  for (const trace of data) {
+    const ys = trace.y as (number | null)[];
+    const errors = (trace.error_y as { array?: (number | null)[] } | undefined)?.array;
+    ys.forEach((y, i) => {
+      if (y === null) return;
+      const e = errors?.[i] ?? 0;
+      low = Math.min(low, y - e);
+      high = Math.max(high, y + e);
+    });
+  }
+  if (!(high > low)) high = low + 1;
+  const room = 0.06 * (high - low);
+  return [low < 0 ? low - room : 0, high + room];
 }

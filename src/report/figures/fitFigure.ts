@@ -5,6 +5,7 @@
 import { InvalidArgumentError } from "../../errors.js";
 import type { FitResult } from "../../fit/types.js";
 import type { Profile } from "../../profile.js";
+import { symmetricTicks } from "./axes.js";
 import { plainArray, plotlyText, STATIC_CONFIG, withMimeBundle, type FigureSpec } from "./figureSpec.js";
 import { axisStyle, baseLayout, resolveSize, type FigureSize } from "./journal.js";
 import { GUIDE, INK, seriesStyle } from "./palette.js";
@@ -69,7 +70,7 @@ export interface ResidualPanelSplit {
   dataFrom: number;
   /** Top of the residual panel. */
   residualsTo: number;
-  /** Tick count on the residual axis. */
+  /** Ticks wanted on the residual axis (at most; always at least three, symmetric about 0). */
   residualTicks: number;
 }
 
@@ -82,7 +83,7 @@ export function residualPanelAxes(xTitle: string, yTitle: string, limit: number,
     xaxis: axisStyle("", { domain: [0, 1], anchor: "y", matches: "x2", showticklabels: false, title: undefined }),
     yaxis: axisStyle(yTitle, { domain: [split.dataFrom, 1], anchor: "x", rangemode: "tozero" }),
     xaxis2: axisStyle(xTitle, { domain: [0, 1], anchor: "y2" }),
-    yaxis2: axisStyle("(<i>I</i>−<i>f</i>)/<i>σ</i>", { domain: [0, split.residualsTo], anchor: "x2", range: [-limit, limit], nticks: split.residualTicks }),
+    yaxis2: axisStyle("(<i>I</i>−<i>f</i>)/<i>σ</i>", { domain: [0, split.residualsTo], anchor: "x2", range: [-limit, limit], tickmode: "array", tickvals: symmetricTicks(limit, split.residualTicks) }),
     shapes: [{ type: "line", xref: "x2 domain", x0: 0, x1: 1, yref: "y2", y0: 0, y1: 0, line: { color: GUIDE, width: 0.75 } }],
   };
 }
