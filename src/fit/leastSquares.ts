@@ -218,8 +218,9 @@ function levenbergMarquardt(problem: LeastSquaresProblem, start: Float64Array, o
     return true;
   };
 
+  // The workspace is not used after finishing, so the outcome takes its arrays without copies.
   const finish = (reason: StopReason, cost: number): SolverOutcome =>
-    ({ x: Float64Array.from(x), residuals: Float64Array.from(r), jacobian: Float64Array.from(jac), cost, reason,
+    ({ x, residuals: r, jacobian: jac, cost, reason,
       iterations, evaluations, jacobianEvaluations, nonFiniteJacobian, nonFiniteTrials });
 
   let cost: number;
