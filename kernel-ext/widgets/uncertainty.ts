@@ -25,6 +25,7 @@ interface UncertaintyState extends Record<string, unknown> {
   threshold: number;
   free_names: string[];
   correlation: NdArray | null;
+  model_id: string;
 }
 
 export interface UncertaintyOptions {
@@ -72,6 +73,7 @@ export class UncertaintyWidget {
       threshold: this.intervals[0]?.threshold ?? 1,
       free_names: [...result.freeNames],
       correlation: { data: Float64Array.from(result.correlation), shape: [k, k] },
+      model_id: result.modelId,
     }, { serializers: { grid: ndArraySerializer, delta: ndArraySerializer, correlation: ndArraySerializer } });
   }
 

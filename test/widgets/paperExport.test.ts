@@ -184,4 +184,15 @@ run("widget export buttons save the paper figure (Chromium)", () => {
     await expectSame(saved, figure);
     expect(h.errors).toEqual([]);
   }, 60_000);
+
+  it("export with nothing to draw, or a figure the builder refuses, says why beside the buttons", async () => {
+    const empty = (await h.page.evaluate(`fk.show("ComparisonModel", {})`)) as string;
+    await h.page.click(`#host-${empty} button[data-action=export-svg]`);
+    await expect.poll(() => h.page.textContent(`#host-${empty} [data-region=export-error]`)).toMatch(/nothing to export yet/);
+    // comparisonFigure draws 1 to 4 fits; a table row without its curve is refused with the builder's message.
+    const id = await show("ComparisonModel", "fk.comparisonState(256)");
+    await h.page.evaluate(`(() => { const m = fk.views.get(${JSON.stringify(id)}).model; m.set("curves", { data: new Float64Array(3 * 100), shape: [3, 100] }); })()`);
+    await h.page.click(`#host-${id} button[data-action=export-png]`);
+    await expect.poll(() => h.page.textContent(`#host-${id} [data-region=export-error]`)).toMatch(/Export failed: .*fits of this profile/);
+  }, 60_000);
 });

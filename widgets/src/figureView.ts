@@ -23,6 +23,7 @@ export abstract class FigureView extends DOMWidgetView {
   protected head!: HTMLDivElement;
   protected plotEl!: HTMLDivElement;
   private resizeObserver: ResizeObserver | null = null;
+  private exportError!: HTMLSpanElement;
   private plotted = false;
   private lastWidth = 0;
 
@@ -36,11 +37,12 @@ export abstract class FigureView extends DOMWidgetView {
     this.plotEl = h("div", { class: "fk-plot", style: `min-height:${plotHeight}px` });
     const svgButton = h("button", { type: "button", title: "Save the figure as SVG", "data-action": "export-svg" }, "SVG");
     const pngButton = h("button", { type: "button", title: "Save the figure as PNG", "data-action": "export-png" }, "PNG");
-    svgButton.addEventListener("click", () => void this.exportImage("svg"));
-    pngButton.addEventListener("click", () => void this.exportImage("png"));
+    this.exportError = h("span", { class: "fk-export-error", role: "alert", "data-region": "export-error" });
+    svgButton.addEventListener("click", () => void this.exportSafely("svg"));
+    pngButton.addEventListener("click", () => void this.exportSafely("png"));
     this.head = h("div", { class: "fk-head" }, h("span", { class: "fk-title" }, title));
     this.root = h("div", { class: "fk-root" }, this.head);
-    this.head.append(h("span", { class: "fk-seg", role: "group", "aria-label": "Export figure" }, svgButton, pngButton));
+    this.head.append(h("span", { class: "fk-seg", role: "group", "aria-label": "Export figure" }, svgButton, pngButton), this.exportError);
     this.el.append(this.root);
     this.resizeObserver = new ResizeObserver(() => {
       const width = this.plotEl.clientWidth;
@@ -76,9 +78,24 @@ export abstract class FigureView extends DOMWidgetView {
    * 300 dpi), one file each; the on-screen figure is left as it is.
    */
   async exportImage(format: "svg" | "png"): Promise<void> {
-    const figures = this.paperFigures();
+    await this.saveFigures(this.paperFigures(), format);
+  }
+
+  private async saveFigures(figures: FigureSpec[], format: "svg" | "png"): Promise<void> {
     for (const [i, figure] of figures.entries()) {
       await downloadPaperFigure(this.el.ownerDocument, figure, format, figures.length > 1 ? `${this.exportName()}-${i + 1}` : this.exportName());
+    }
+  }
+
+  /** The export buttons' action: a figure that cannot be built says why beside the buttons. */
+  private async exportSafely(format: "svg" | "png"): Promise<void> {
+    this.exportError.textContent = "";
+    try {
+      const figures = this.paperFigures();
+      if (figures.length === 0) throw new Error("nothing to export yet: the widget has no data");
+      await this.saveFigures(figures, format);
+    } catch (error) {
+      this.exportError.textContent = `Export failed: ${error instanceof Error ? error.message : String(error)}`;
     }
   }
 

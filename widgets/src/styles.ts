@@ -60,6 +60,8 @@ const css = `
 .fk-progress > div { height: 100%; background: ${palette.fit}; width: 0; transition: width 0.1s; }
 .fk-status { font-size: 12px; color: ${palette.muted}; min-height: 1.4em; }
 .fk-status.fk-bad { color: #b91c1c; }
+.fk-export-error { font-size: 12px; color: #b91c1c; }
+.fk-export-error:empty { display: none; }
 table.fk-table { border-collapse: collapse; width: 100%; font-size: 12px; font-variant-numeric: tabular-nums; }
 table.fk-table th, table.fk-table td { padding: 2px 6px; text-align: right; border-bottom: 1px solid #f1f5f9; white-space: nowrap; }
 table.fk-table th:first-child, table.fk-table td:first-child { text-align: left; }

@@ -31,6 +31,7 @@ export class UncertaintyModel extends FringekitModel {
       threshold: 1,
       free_names: [],
       correlation: null,
+      model_id: "",
     };
   }
 
