@@ -8,7 +8,6 @@ import { TOP_CODES, flaggedRanges } from "./findSaturation.js";
 import type { ImageStack } from "./imageTypes.js";
 import { averageRows } from "./averageRows.js";
 import { measureTilt } from "./measureTilt.js";
-import { refineTilt } from "./refineTilt.js";
 import { repairHotPixels } from "./repairHotPixels.js";
 
 /** Rectangle in pixels (0-based column and row of the top-left corner, size). */
@@ -107,7 +106,7 @@ export function frameToLine(stack: ImageStack, options: FrameOptions = {}): Line
     const where = hot.slice(0, 5).map(([c, r]) => `(${roi.x + c}, ${roi.y + r})`).join(", ");
     warnings.push(`${hot.length} hot pixels replaced by the mean of their neighbours at (column, row) ${where}${hot.length > 5 ? ", ..." : ""}`);
   }
-  const tilt = options.tilt === undefined || options.tilt === "auto" ? refineTilt(values, saturated, roi, measureTilt(values, w, h, saturated)) : options.tilt;
+  const tilt = options.tilt === undefined || options.tilt === "auto" ? measureTilt(values, w, h, saturated) : options.tilt;
   if (!Number.isFinite(tilt) || Math.abs(tilt) >= Math.PI / 4) throw new InvalidArgumentError("tilt", tilt, "an angle in radians between −π/4 and π/4, or \"auto\"");
   if (options.tilt === undefined || options.tilt === "auto") notes.push(`fringe tilt ${(tilt * 180 / Math.PI).toFixed(3)}° measured and undone`);
   // Integer codes carry at least the quantisation variance 1/12 code² (uniform rounding error).

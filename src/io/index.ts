@@ -15,7 +15,6 @@ export * from "./readTiffDirectories.js";
 export * from "./decodeTiff.js";
 export * from "./readImage.js";
 export * from "./measureTilt.js";
-export * from "./refineTilt.js";
 export * from "./repairHotPixels.js";
 export * from "./averageRows.js";
 export * from "./frameToLine.js";
