@@ -1,5 +1,6 @@
 // Headless figure export (Node side): re-exports only.
 export * from "./exportFigure.js";
+export * from "./saveFigure.js";
 export * from "./atomicWrite.js";
 export { setPngDpi } from "./pngDensity.js";
 export * from "./figureBundle.js";

@@ -1,0 +1,43 @@
+/**
+ * One call that writes a paper figure in several formats: `out/first-fit.svg`, `.pdf`, `.png`.
+ * The folder is created when missing; each file is written atomically.
+ */
+import { mkdir } from "node:fs/promises";
+import path from "node:path";
+import { InvalidArgumentError } from "../../src/errors.js";
+import type { FigureSpec } from "../../src/report/figures/figureSpec.js";
+import { FigureRenderer, exportFigure, type ExportedFigure, type FigureFormat } from "./exportFigure.js";
+
+/** Options of saveFigure. */
+export interface SaveFigureOptions {
+  /** Formats to write (default ["svg", "pdf", "png"]). */
+  formats?: FigureFormat[];
+  /** PNG resolution in dots per inch, 72–1200 (default 600). */
+  dpi?: number;
+}
+
+/**
+ * Write `figure` (a description from the figure builders, e.g. `fitFigure(...)`) to
+ * `basePath` + ".svg" / ".pdf" / ".png". A `basePath` that already ends in one of these
+ * extensions has it removed first. Physical size is the figure's own (mm); PNG pixels are
+ * mm / 25.4 × dpi.
+ * @returns what was written, one entry per format, in the order asked
+ * @example await saveFigure(fitFigure(profile, result), "out/figures/first-fit", { formats: ["svg", "png"], dpi: 600 })
+ */
+export async function saveFigure(figure: FigureSpec, basePath: string, options: SaveFigureOptions = {}): Promise<ExportedFigure[]> {
+  if (typeof basePath !== "string" || basePath.trim() === "") throw new InvalidArgumentError("basePath", basePath, 'a file path without extension, e.g. "out/figures/first-fit"');
+  const formats = options.formats ?? ["svg", "pdf", "png"];
+  if (!Array.isArray(formats) || formats.length === 0 || formats.some((f) => f !== "svg" && f !== "pdf" && f !== "png")) {
+    throw new InvalidArgumentError("formats", formats, 'a non-empty list of "svg", "pdf", "png"');
+  }
+  const base = basePath.replace(/\.(svg|pdf|png)$/i, "");
+  await mkdir(path.dirname(path.resolve(base)), { recursive: true });
+  const renderer = await FigureRenderer.start();
+  try {
+    const written: ExportedFigure[] = [];
+    for (const format of formats) written.push(await exportFigure(figure, `${base}.${format}`, { format, dpi: options.dpi ?? 600 }, renderer));
+    return written;
+  } finally {
+    await renderer.close();
+  }
+}
