@@ -13,3 +13,4 @@ export * from "./tableReport.js";
 export * from "./figures/index.js";
 export * from "./version.js";
 export * from "./results/index.js";
+export * from "./render/index.js";

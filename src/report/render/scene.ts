@@ -1,0 +1,123 @@
+/**
+ * A drawn figure as a few primitive items (paths, text, clipped groups) in CSS px with the
+ * origin at the top left: what figureScene makes from a FigureSpec and what the SVG writer
+ * (src/report/render/svg.ts) and the PDF writer (kernel-ext/figures) turn into files.
+ */
+import type { TextRun } from "./markup.js";
+
+/** A path in SVG path syntax (absolute and relative M, L, H, V, Z), stroked and/or filled. */
+export interface PathItem {
+  type: "path";
+  d: string;
+  /** Fill colour "#rrggbb" (none when absent) and its opacity. */
+  fill?: string;
+  fillOpacity?: number;
+  /** Stroke colour "#rrggbb" (none when absent), its opacity and width (px). */
+  stroke?: string;
+  strokeOpacity?: number;
+  strokeWidth?: number;
+  /** Dash pattern (px), solid when absent. */
+  dash?: number[];
+  /** Line ends: round ones also make the dots of circle markers (zero-length segments). */
+  cap?: "butt" | "round";
+  join?: "miter" | "round";
+}
+
+/** One line of styled text with its anchor point (x, baseline y), optionally rotated about it (degrees, clockwise). */
+export interface TextItem {
+  type: "text";
+  x: number;
+  y: number;
+  runs: TextRun[];
+  /** Font size (px). */
+  size: number;
+  color: string;
+  anchor: "start" | "middle" | "end";
+  rotate?: number;
+}
+
+/** Items drawn inside a clip rectangle (px). */
+export interface GroupItem {
+  type: "group";
+  clip: { x: number; y: number; width: number; height: number };
+  items: SceneItem[];
+}
+
+export type SceneItem = PathItem | TextItem | GroupItem;
+
+/** A whole figure: size in CSS px and mm, background, items in drawing order. */
+export interface Scene {
+  width: number;
+  height: number;
+  widthMm: number;
+  heightMm: number;
+  background: string;
+  fontFamily: string;
+  items: SceneItem[];
+}
+
+/** Round a coordinate (px) to 0.1 px: 0.03 mm, below the dot pitch of a 600 dpi print. */
+export function r1(v: number): number {
+  return Math.round(v * 10) / 10;
+}
+
+/** Shortest text of a number rounded to 0.1 ("0.5" → ".5", "-0.5" → "-.5"). */
+export function num(v: number): string {
+  const t = String(r1(v) + 0);
+  return t.startsWith("0.") ? t.slice(1) : t.startsWith("-0.") ? `-${t.slice(2)}` : t;
+}
+
+/**
+ * Compact path builder: coordinates rounded to 0.1 px and written relative to the previous
+ * point, so a 4096-point curve stays a few tens of kilobytes.
+ */
+export class PathBuilder {
+  private parts: string[] = [];
+  private cx = 0;
+  private cy = 0;
+  private sx = 0;
+  private sy = 0;
+
+  /** Start a subpath at (x, y) px. */
+  move(x: number, y: number): this {
+    const rx = r1(x), ry = r1(y);
+    const dx = num(rx - this.cx), dy = num(ry - this.cy);
+    this.parts.push(this.parts.length === 0 ? `M${num(rx)} ${num(ry)}` : `m${dx}${dy.startsWith("-") ? "" : " "}${dy}`);
+    this.cx = rx; this.cy = ry;
+    this.sx = rx; this.sy = ry;
+    return this;
+  }
+
+  /** Line to (x, y) px. */
+  line(x: number, y: number): this {
+    const rx = r1(x), ry = r1(y);
+    const dx = num(rx - this.cx), dy = num(ry - this.cy);
+    if (dy === "0") this.parts.push(`h${dx}`);
+    else if (dx === "0") this.parts.push(`v${dy}`);
+    else this.parts.push(`l${dx}${dy.startsWith("-") ? "" : " "}${dy}`);
+    this.cx = rx; this.cy = ry;
+    return this;
+  }
+
+  /** A dot at (x, y): a zero-length segment, drawn as a disc by a round-capped stroke. */
+  dot(x: number, y: number): this {
+    this.move(x, y);
+    this.parts.push("h0");
+    return this;
+  }
+
+  /** Close the current subpath. */
+  close(): this {
+    this.parts.push("z");
+    this.cx = this.sx; this.cy = this.sy;
+    return this;
+  }
+
+  get empty(): boolean {
+    return this.parts.length === 0;
+  }
+
+  toString(): string {
+    return this.parts.join("");
+  }
+}
