@@ -1,6 +1,8 @@
 /**
- * Headless export of fringekit figure descriptions to SVG and PDF (vector) and PNG at a chosen
- * resolution, rendered by plotly.js in Debian's Chromium. Files are written atomically.
+ * Export of fringekit figure descriptions to SVG and PDF (vector) and PNG at a chosen
+ * resolution, without a browser: the pure renderer in src/report/render draws the SVG (the
+ * same code the widgets' export buttons run), resvg rasterises it, PDFKit writes the PDF
+ * with the font embedded. Files are written atomically.
  *
  * Example (kernel or Node):
  *   await exportFigure(fitFigure(profile, result), "fig1.pdf");
@@ -9,9 +11,12 @@
 import path from "node:path";
 import { InvalidArgumentError } from "../../src/errors.js";
 import type { FigureSpec } from "../../src/report/figures/figureSpec.js";
+import { figureScene } from "../../src/report/render/figureScene.js";
+import type { Scene } from "../../src/report/render/scene.js";
+import { sceneToSvg } from "../../src/report/render/svg.js";
 import { writeFileAtomic } from "./atomicWrite.js";
-import { openPlotlyPage, type PlotlyPage } from "./browser.js";
-import { setPngDpi } from "./pngDensity.js";
+import { sceneToPdf } from "./pdfScene.js";
+import { svgToPng } from "./rasterize.js";
 
 /** Export formats: SVG and PDF (vector) and PNG (raster at a chosen dpi). */
 export type FigureFormat = "svg" | "pdf" | "png";
@@ -41,95 +46,49 @@ export interface ExportedFigure {
 }
 
 /**
- * One Chromium page that renders many figures in turn (starting Chromium costs about a
- * second; reuse a renderer for a batch). Always close() it, also on failure.
+ * Renders figures to file bytes. Kept as an object so a batch of exports can share one (it
+ * holds nothing that needs closing now that no browser is involved; close() stays for callers).
  */
 export class FigureRenderer {
-  private constructor(private readonly browser: PlotlyPage) {}
+  private cache = new WeakMap<FigureSpec, { scene: Scene; svg: string }>();
 
-  /** Start Chromium and load plotly.js. */
+  /** A renderer (no process is started). */
   static async start(): Promise<FigureRenderer> {
-    return new FigureRenderer(await openPlotlyPage());
+    return new FigureRenderer();
   }
 
   /** Render `figure` to the bytes of an SVG, PDF or PNG file. */
   async render(figure: FigureSpec, format: FigureFormat, options: RenderOptions = {}): Promise<Uint8Array> {
     checkFigure(figure);
     const dpi = checkDpi(options.dpi ?? 300);
-    const svg = await this.svg(figure);
+    if (format !== "svg" && format !== "pdf" && format !== "png") throw new InvalidArgumentError("format", format, '"svg", "pdf" or "png"');
+    const { scene, svg } = this.drawn(figure);
     if (format === "svg") return new TextEncoder().encode(svg);
-    if (format === "png") return setPngDpi(await this.png(figure, dpi), dpi);
-    if (format === "pdf") return this.pdf(svg, figure);
-    throw new InvalidArgumentError("format", format, '"svg", "pdf" or "png"');
+    if (format === "png") return svgToPng(svg, scene.widthMm, dpi);
+    return sceneToPdf(scene);
   }
 
-  /** Draw `figure` and list the traces plotly actually rendered (type and name), for checks. */
-  async renderedTraces(figure: FigureSpec): Promise<{ type: string; name: string }[]> {
-    checkFigure(figure);
-    await this.plot(figure, "svg", 1);
-    return this.browser.page.evaluate(() => {
-      const gd = (globalThis as any).document.getElementById("figure");
-      return (gd._fullData as { type: string; name: string }[]).map((t) => ({ type: t.type, name: t.name }));
-    });
-  }
+  /** Nothing to release; kept so code written for a browser-based renderer still runs. */
+  async close(): Promise<void> {}
 
-  /** Stop Chromium and remove its temporary profile. */
-  async close(): Promise<void> {
-    await this.browser.close();
-  }
-
-  private async plot(figure: FigureSpec, format: "svg" | "png", scale: number): Promise<string> {
-    const { data, layout, config } = JSON.parse(JSON.stringify({ data: figure.data, layout: figure.layout, config: figure.config }));
-    return this.browser.page.evaluate(
-      async ({ data, layout, config, format, scale }) => {
-        const Plotly = (globalThis as unknown as { Plotly: any }).Plotly;
-        const gd = (globalThis as any).document.getElementById("figure");
-        Plotly.purge(gd);
-        await Plotly.newPlot(gd, data, layout, config);
-        return Plotly.toImage(gd, { format, width: layout.width, height: layout.height, scale }) as Promise<string>;
-      },
-      { data, layout, config, format, scale },
-    );
-  }
-
-  private async svg(figure: FigureSpec): Promise<string> {
-    const url = await this.plot(figure, "svg", 1);
-    const text = decodeURIComponent(url.slice(url.indexOf(",") + 1));
-    return physicalSvgSize(text, figure);
-  }
-
-  private async png(figure: FigureSpec, dpi: number): Promise<Uint8Array> {
-    const url = await this.plot(figure, "png", dpi / 96);
-    return new Uint8Array(Buffer.from(url.slice(url.indexOf(",") + 1), "base64"));
-  }
-
-  private async pdf(svg: string, figure: FigureSpec): Promise<Uint8Array> {
-    const { widthMm, heightMm } = figure.layout.meta;
-    const page = await this.browser.context.newPage();
-    try {
-      await page.setContent(
-        `<!doctype html><html><head><meta charset="utf-8"><style>@page{size:${widthMm}mm ${heightMm}mm;margin:0}` +
-          `html,body{margin:0;padding:0}svg{display:block}</style></head><body>${svg.replace(/^<\?xml[^>]*>/, "")}</body></html>`,
-      );
-      const bytes = await page.pdf({ width: `${widthMm}mm`, height: `${heightMm}mm`, printBackground: true, pageRanges: "1", margin: { top: "0", right: "0", bottom: "0", left: "0" } });
-      return new Uint8Array(bytes);
-    } finally {
-      await page.close();
+  /** The scene and SVG of a figure, drawn once per figure object when several formats are written. */
+  private drawn(figure: FigureSpec): { scene: Scene; svg: string } {
+    let hit = this.cache.get(figure);
+    if (!hit) {
+      const scene = figureScene(figure);
+      hit = { scene, svg: sceneToSvg(scene) };
+      this.cache.set(figure, hit);
     }
+    return hit;
   }
 }
 
 /**
- * Render `figure` with a fresh Chromium and return the file bytes (SVG, PDF or PNG).
+ * Render `figure` and return the file bytes (SVG, PDF or PNG).
  * @param figure a figure description from src/report/figures
  */
 export async function renderFigure(figure: FigureSpec, format: FigureFormat, options: RenderOptions = {}): Promise<Uint8Array> {
-  const renderer = await FigureRenderer.start();
-  try {
-    return await renderer.render(figure, format, options);
-  } finally {
-    await renderer.close();
-  }
+  return new FigureRenderer().render(figure, format, options);
 }
 
 /**
@@ -139,7 +98,7 @@ export async function renderFigure(figure: FigureSpec, format: FigureFormat, opt
  */
 export async function exportFigure(figure: FigureSpec, outPath: string, options: ExportOptions = {}, renderer?: FigureRenderer): Promise<ExportedFigure> {
   const format = options.format ?? formatFromPath(outPath);
-  const bytes = renderer ? await renderer.render(figure, format, options) : await renderFigure(figure, format, options);
+  const bytes = await (renderer ?? new FigureRenderer()).render(figure, format, options);
   await writeFileAtomic(outPath, bytes);
   const { widthMm, heightMm } = figure.layout.meta;
   const result: ExportedFigure = { path: outPath, format, bytes: bytes.length, widthMm, heightMm };
@@ -156,15 +115,6 @@ export function formatFromPath(file: string): FigureFormat {
   const ext = path.extname(file).toLowerCase().slice(1);
   if (ext === "svg" || ext === "pdf" || ext === "png") return ext;
   throw new InvalidArgumentError("figure file", file, "a name ending in .svg, .pdf or .png");
-}
-
-/** Give the SVG its physical size in mm (viewBox in CSS px), so it prints at journal size. */
-function physicalSvgSize(svg: string, figure: FigureSpec): string {
-  const { width, height, meta } = figure.layout;
-  return svg.replace(/<svg\b([^>]*)>/, (_match, attrs: string) => {
-    const kept = attrs.replace(/\s(width|height|viewBox)="[^"]*"/g, "");
-    return `<svg${kept} width="${meta.widthMm}mm" height="${meta.heightMm}mm" viewBox="0 0 ${width} ${height}">`;
-  });
 }
 
 function checkFigure(figure: FigureSpec): void {

@@ -85,7 +85,7 @@ async function writeAll(base: string, figure: FigureSpec, table: TableReport, do
   const names = [...formats.map((f) => `${base}.${f}`), `${base}.tex`, `${base}-table.tex`, `${base}.md`, `${base}.html`, `${base}.json`];
   const clash = source ? names.find((n) => path.basename(n) === path.basename(source)) : undefined;
   if (clash) throw new InvalidArgumentError("base", base, `a name whose outputs do not include the data file ${source} (${clash} would replace it)`);
-  // Write the cheap, pure outputs first: a browser failure then still leaves the tables and results.
+  // Write the cheap, pure outputs first: a figure failure (e.g. no fonts) still leaves the tables and results.
   const out: ExportedReport = {
     figures: [],
     latexDocument: `${base}.tex`,

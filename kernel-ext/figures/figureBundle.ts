@@ -14,7 +14,7 @@ export interface DisplayableFigure {
 }
 
 /**
- * Render `figure` to SVG in headless Chromium and return an object whose mime bundle holds
+ * Render `figure` to SVG (no browser: src/report/render) and return an object whose mime bundle holds
  * image/svg+xml, application/vnd.plotly.v1+json and text/plain.
  * Example (cell): `await displayableFigure(fitFigure(profile, result))` as the last expression.
  */

@@ -5,8 +5,10 @@ import { fileURLToPath } from "node:url";
 import { decode } from "fast-png";
 import pixelmatch from "pixelmatch";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { DEFAULT_CHROMIUM } from "../../kernel-ext/figures/browser.js";
 import { exportFigure, FigureRenderer, formatFromPath } from "../../kernel-ext/figures/exportFigure.js";
+import { figureFonts } from "../../kernel-ext/figures/fonts.js";
+import { figureScene } from "../../src/report/render/figureScene.js";
+import type { SceneItem } from "../../src/report/render/scene.js";
 import { exampleFigures } from "./renderExamples.js";
 
 const HERE = path.dirname(fileURLToPath(import.meta.url));
@@ -15,10 +17,21 @@ const SNAPSHOTS = path.join(HERE, "snapshots");
 const SNAPSHOT_DPI = 96;
 /** Allowed share of differing pixels (anti-aliasing and font hinting vary slightly between runs). */
 const MAX_DIFF_SHARE = 0.01;
-const haveChromium = existsSync(process.env.FRINGEKIT_CHROMIUM || DEFAULT_CHROMIUM);
-if (!haveChromium) console.warn("SKIPPED: figure export tests (Debian chromium not installed)");
+const haveFonts = (() => {
+  try {
+    return Boolean(figureFonts());
+  } catch {
+    return false;
+  }
+})();
+if (!haveFonts) console.warn("SKIPPED: figure export tests (Debian fonts-liberation not installed)");
 
-describe.skipIf(!haveChromium)("FigureRenderer in headless Chromium", () => {
+/** Every text line a scene draws, as plain text, in drawing order. */
+function sceneTexts(items: SceneItem[]): string[] {
+  return items.flatMap((item) => (item.type === "group" ? sceneTexts(item.items) : item.type === "text" ? [item.runs.map((r) => r.text).join("")] : []));
+}
+
+describe.skipIf(!haveFonts)("FigureRenderer (no browser)", () => {
   let renderer: FigureRenderer;
   const work = mkdtempSync(path.join(tmpdir(), "fringekit-figures-"));
   beforeAll(async () => {
@@ -31,9 +44,12 @@ describe.skipIf(!haveChromium)("FigureRenderer in headless Chromium", () => {
 
   for (const example of exampleFigures()) {
     const { name, figure, traces } = example;
-    it(`render(${name}) draws the expected traces`, async () => {
-      const drawn = await renderer.renderedTraces(figure);
-      expect(drawn.map((t) => t.name)).toEqual(traces);
+    it(`figureScene(${name}) draws every legend entry and axis title`, () => {
+      const texts = sceneTexts(figureScene(figure).items);
+      const legendNames = figure.data.filter((t) => t.showlegend !== false && t.type !== "heatmap").map((t) => String(t.name).replace(/&amp;/g, "&"));
+      for (const name of legendNames) expect(texts).toContain(name);
+      // The trace names the builder promises are all there (legend or not).
+      expect(figure.data.map((t) => t.name)).toEqual(traces);
     });
 
     it(`render(${name}, "png", {dpi}) has the journal size and matches its snapshot`, async () => {
@@ -85,11 +101,14 @@ describe.skipIf(!haveChromium)("FigureRenderer in headless Chromium", () => {
     expect(pdf.subarray(0, 5).toString()).toBe("%PDF-");
     const text = pdf.toString("latin1");
     const box = text.match(/\/MediaBox\s*\[\s*0\s+0\s+([\d.]+)\s+([\d.]+)\s*\]/)!;
-    // 85 mm = 240.94 pt, 60 mm = 170.08 pt (72 pt per inch); Chromium rounds the page to its own units (±0.5 mm).
-    expect(Math.abs(Number(box[1]) - (85 / 25.4) * 72)).toBeLessThan(1.5);
-    expect(Math.abs(Number(box[2]) - (60 / 25.4) * 72)).toBeLessThan(1.5);
+    // 85 mm = 240.94 pt, 60 mm = 170.08 pt (72 pt per inch, PDF 1.7 ISO 32000-1 §8.3.2.3).
+    expect(Math.abs(Number(box[1]) - (85 / 25.4) * 72)).toBeLessThan(0.01);
+    expect(Math.abs(Number(box[2]) - (60 / 25.4) * 72)).toBeLessThan(0.01);
     expect(text.match(/\/Type\s*\/Page\b/g)?.length).toBe(1);
     expect(text).not.toMatch(/\/Subtype\s*\/Image/);
+    // The font is embedded (a TrueType subset of Liberation Sans), so the PDF prints the same anywhere.
+    expect(text).toMatch(/\/FontFile2/);
+    expect(text).toMatch(/LiberationSans/);
   });
 
   it("exportFigure(figure, 'out.pdf') writes atomically and leaves no temporary file", async () => {
@@ -121,7 +140,7 @@ function toRgba(image: ReturnType<typeof decode>): Uint8Array {
   return out;
 }
 
-describe.skipIf(!haveChromium)("exportFitReport(profile, result, base, options)", () => {
+describe.skipIf(!haveFonts)("exportFitReport(profile, result, base, options)", () => {
   it("writes figure, LaTeX, Markdown, HTML and a results file that parses back to the same result", async () => {
     const { parseResults } = await import("../../src/report/results/resultsDocument.js");
     const { exportFitReport } = await import("../../kernel-ext/figures/exportReport.js");

@@ -208,8 +208,9 @@ function placeAxes(axes: Map<string, Axis>, box: { L: number; R: number; T: numb
     const per = Math.min(perA, perB);
     for (const axis of [a, other]) {
       const len = per * Math.abs(axis.range[1] - axis.range[0]);
+      // x keeps its left end; y is centred in its span (the free height splits above and below)
       if (axis.letter === "x") axis.p1 = axis.p0 + len;
-      else axis.p0 = axis.p1 + len;
+      else { const spare = axis.p0 - axis.p1 - len; axis.p1 += spare / 2; axis.p0 = axis.p1 + len; }
     }
   }
   for (const a of axes.values()) {
