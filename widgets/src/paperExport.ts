@@ -1,50 +1,51 @@
 /**
  * Save a paper figure from the browser: the figure description built by src/report/figures
- * (the same one the headless exporter renders) is drawn by plotly.js off screen at its
- * journal size and saved as SVG (physical size in mm) or PNG (at a resolution in dpi).
+ * is drawn by the same pure renderer the kernel and the command line use (src/report/render),
+ * so the SVG saved here is byte for byte the headless exporter's; PNG is that SVG drawn on a
+ * canvas at a resolution in dpi (fonts: the page's Liberation Sans or Arial).
  */
-import Plotly from "plotly.js-dist-min";
 import type { FigureSpec } from "../../src/report/figures/figureSpec.js";
+import { figureSvg } from "../../src/report/render/figureSvg.js";
 import { setPngDpi } from "../../kernel-ext/figures/pngDensity.js";
 
 /** PNG resolution of the export buttons (dots per inch; the headless exporter's default too). */
 export const EXPORT_DPI = 300;
 
 /**
- * Draw `figure` at its own size (layout.width × layout.height CSS px) in a hidden element and
- * return the file contents: SVG text sized in mm, or PNG bytes at `dpi` with the dpi recorded.
+ * The file contents of `figure`: SVG text sized in mm, or PNG bytes at `dpi` with the dpi recorded.
  */
 export async function renderPaperFigure(doc: Document, figure: FigureSpec, format: "svg" | "png", dpi = EXPORT_DPI): Promise<string | Uint8Array> {
-  const { width, height } = figure.layout;
-  // Off screen but laid out: plotly measures text, which needs a rendered element.
-  const host = doc.createElement("div");
-  host.setAttribute("aria-hidden", "true");
-  host.style.cssText = `position:fixed;left:-20000px;top:0;width:${width}px;height:${height}px;pointer-events:none`;
-  doc.body.append(host);
-  try {
-    // A deep copy: plotly writes into the objects it is given.
-    const { data, layout, config } = JSON.parse(JSON.stringify({ data: figure.data, layout: figure.layout, config: figure.config }));
-    await Plotly.newPlot(host, data, layout, config);
-    const url = await Plotly.toImage(host, { format, width, height, scale: format === "png" ? dpi / 96 : 1 });
-    const body = url.slice(url.indexOf(",") + 1);
-    if (format === "svg") return physicalSvgSize(decodeURIComponent(body), figure);
-    const raw = atob(body);
-    const bytes = new Uint8Array(raw.length);
-    for (let i = 0; i < raw.length; i++) bytes[i] = raw.charCodeAt(i);
-    return setPngDpi(bytes, dpi);
-  } finally {
-    Plotly.purge(host);
-    host.remove();
-  }
+  const svg = figureSvg(figure);
+  if (format === "svg") return svg;
+  return setPngDpi(await svgToPngInPage(doc, svg, figure.layout.meta.widthMm, figure.layout.meta.heightMm, dpi), dpi);
 }
 
-/** Give the SVG its physical size in mm (viewBox in CSS px), so it prints at journal size. */
-export function physicalSvgSize(svg: string, figure: FigureSpec): string {
-  const { width, height, meta } = figure.layout;
-  return svg.replace(/<svg\b([^>]*)>/, (_match, attrs: string) => {
-    const kept = attrs.replace(/\s(width|height|viewBox)="[^"]*"/g, "");
-    return `<svg${kept} width="${meta.widthMm}mm" height="${meta.heightMm}mm" viewBox="0 0 ${width} ${height}">`;
-  });
+/** Draw `svg` on a canvas of widthMm × heightMm at `dpi` (white background) and return the PNG bytes. */
+async function svgToPngInPage(doc: Document, svg: string, widthMm: number, heightMm: number, dpi: number): Promise<Uint8Array> {
+  const width = Math.round((widthMm / 25.4) * dpi), height = Math.round((heightMm / 25.4) * dpi);
+  const url = URL.createObjectURL(new Blob([svg], { type: "image/svg+xml" }));
+  try {
+    const image = new Image();
+    image.width = width;
+    image.height = height;
+    await new Promise<void>((resolve, reject) => {
+      image.onload = () => resolve();
+      image.onerror = () => reject(new Error("the browser could not draw the figure's SVG"));
+      image.src = url;
+    });
+    const canvas = doc.createElement("canvas");
+    canvas.width = width;
+    canvas.height = height;
+    const context = canvas.getContext("2d");
+    if (!context) throw new Error("no 2D canvas in this browser");
+    context.fillStyle = "#ffffff";
+    context.fillRect(0, 0, width, height);
+    context.drawImage(image, 0, 0, width, height);
+    const blob = await new Promise<Blob>((resolve, reject) => canvas.toBlob((b) => (b ? resolve(b) : reject(new Error("canvas gave no PNG"))), "image/png"));
+    return new Uint8Array(await blob.arrayBuffer());
+  } finally {
+    URL.revokeObjectURL(url);
+  }
 }
 
 /** Render `figure` and hand it to the browser as a download named `stem`.svg / .png. */
