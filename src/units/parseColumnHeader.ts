@@ -2,7 +2,7 @@
  * Column headers with units: "position [mm]", "intensity (counts)", "x/um", "sigma [a.u.]".
  */
 import { normalizeUnitText, unitFactor } from "./parseQuantity.js";
-import { unit as mathUnit } from "mathjs";
+import { lookupUnitExpression, type UnitDimension } from "./unitTable.js";
 
 /** A column header split into its name and unit. */
 export interface ColumnHeader {
@@ -55,19 +55,15 @@ export function positionUnitFactor(unitText: string): number | undefined {
 }
 
 /**
- * Whether a unit may label an intensity column: counts, relative units, or a mathjs unit of
- * power, voltage, current, irradiance or a pure number. Lengths, masses, times are refused.
+ * Whether a unit may label an intensity column: counts, relative units, or a unit of
+ * power, voltage, current, energy or irradiance. Lengths, masses, times are refused.
  * @param unitText unit inside the header brackets
  */
 export function isIntensityUnit(unitText: string): boolean {
   const text = unitText.trim().toLowerCase();
   if (COUNT_UNITS.has(text) || RELATIVE_UNITS.has(text)) return true;
-  try {
-    const parsed = mathUnit(1, normalizeUnitText(unitText));
-    return INTENSITY_BASES.some((base) => parsed.equalBase(mathUnit(base)));
-  } catch {
-    return false;
-  }
+  const known = lookupUnitExpression(normalizeUnitText(unitText));
+  return known !== undefined && INTENSITY_DIMENSIONS.has(known.dimension);
 }
 
-const INTENSITY_BASES = ["W", "V", "A", "W/m^2", "J"];
+const INTENSITY_DIMENSIONS = new Set<UnitDimension>(["power", "voltage", "current", "energy", "irradiance"]);

@@ -1,9 +1,11 @@
 /**
  * Parsing of physical quantities typed by people ("532nm", "532 nm", "0.85m", "5.5 µm")
- * into SI numbers, with mathjs units.
+ * into SI numbers, with fringekit's own unit tables (unitTable.ts), so reading a unit never
+ * loads a general unit library.
  */
-import { unit as mathUnit, type Unit } from "mathjs";
+import type { Unit } from "mathjs";
 import { InvalidArgumentError } from "../errors.js";
+import { lookupUnitExpression } from "./unitTable.js";
 
 /** The physical kinds of quantity fringekit accepts at its edges. */
 export type QuantityKind = "length" | "angle" | "dimensionless";
@@ -21,7 +23,7 @@ export interface Quantity {
 }
 
 /**
- * Rewrites the micro signs (U+00B5, U+03BC) and "micron" that mathjs does not read into "u".
+ * Rewrites the micro signs (U+00B5, U+03BC) into "u", "micron" into "um" and "degree" into "deg".
  * @param text unit or quantity text
  */
 export function normalizeUnitText(text: string): string {
@@ -33,28 +35,27 @@ export function normalizeUnitText(text: string): string {
 }
 
 /**
- * Parses a mathjs unit expression without a number ("mm", "nm", "mrad") and returns the factor
- * that converts a value in it to SI, or undefined when it is not a unit mathjs knows.
+ * Parses a unit without a number ("mm", "nm", "mrad", "deg") and returns the factor that
+ * converts a value in it to SI, or undefined when it is not a unit of that kind.
  * @param text unit text, e.g. "mm" → 0.001 (metres per millimetre)
  * @param kind the physical kind the unit must have
  */
 export function unitFactor(text: string, kind: QuantityKind): number | undefined {
   const clean = normalizeUnitText(text);
   if (clean === "" || clean === "1") return kind === "dimensionless" ? 1 : undefined;
-  let parsed: Unit;
-  try {
-    parsed = mathUnit(1, clean);
-  } catch {
-    return undefined;
-  }
-  if (!hasKind(parsed, kind)) return undefined;
-  return parsed.toNumber(SI_UNIT[kind] === "1" ? "" : SI_UNIT[kind]);
+  const known = lookupUnitExpression(clean);
+  return known && known.dimension === kind ? known.factor : undefined;
 }
 
-/** True when the unit's dimension matches the kind (mathjs compares base dimensions). */
+/** mathjs's order of base dimensions in Unit.dimensions (mass, length, time, current, temperature, luminous intensity, amount, angle, bit). */
+const MATHJS_DIMENSION_INDEX: Record<"length" | "angle", number> = { length: 1, angle: 7 };
+
+/** True when a mathjs Unit's dimension matches the kind (for callers that already hold a mathjs Unit). */
 export function hasKind(parsed: Unit, kind: QuantityKind): boolean {
-  if (kind === "dimensionless") return parsed.dimensions.every((d) => d === 0);
-  return parsed.equalBase(mathUnit(SI_UNIT[kind]));
+  const dims = parsed.dimensions;
+  if (kind === "dimensionless") return dims.every((d) => d === 0);
+  const at = MATHJS_DIMENSION_INDEX[kind];
+  return dims.every((d, i) => d === (i === at ? 1 : 0));
 }
 
 /**
