@@ -2,26 +2,23 @@
  * The `fringekit` command line: dispatches to a subcommand, prints one-line errors (no stack
  * traces) and returns 0 (success), 1 (fit did not converge, result written) or 2 (bad input/usage).
  */
-import { FringekitError } from "../src/index.js";
-import { batchCommand } from "./commands/batch.js";
-import { compareCommand } from "./commands/compare.js";
-import { fitCommand } from "./commands/fit.js";
-import { kernelCommand } from "./commands/kernel.js";
-import { modelsCommand } from "./commands/models.js";
-import { profileCommand } from "./commands/profile.js";
-import { replayCommand } from "./commands/replay.js";
+import { FringekitError } from "../src/errors.js";
 import type { CommandOutput } from "./output.js";
 import { USAGE } from "./usage.js";
 import { UsageError } from "./usageError.js";
 
-const COMMANDS: Record<string, (words: readonly string[]) => CommandOutput | Promise<CommandOutput>> = {
-  models: modelsCommand,
-  fit: fitCommand,
-  compare: compareCommand,
-  profile: profileCommand,
-  batch: batchCommand,
-  kernel: kernelCommand,
-  replay: replayCommand,
+type Command = (words: readonly string[]) => CommandOutput | Promise<CommandOutput>;
+
+// Each command is loaded when it is run, so `fringekit --help` (and every command) loads only
+// what it uses instead of the whole library.
+const COMMANDS: Record<string, () => Promise<Command>> = {
+  models: async () => (await import("./commands/models.js")).modelsCommand,
+  fit: async () => (await import("./commands/fit.js")).fitCommand,
+  compare: async () => (await import("./commands/compare.js")).compareCommand,
+  profile: async () => (await import("./commands/profile.js")).profileCommand,
+  batch: async () => (await import("./commands/batch.js")).batchCommand,
+  kernel: async () => (await import("./commands/kernel.js")).kernelCommand,
+  replay: async () => (await import("./commands/replay.js")).replayCommand,
 };
 
 /** Where the command writes (the process streams, or a capture in tests). */
@@ -50,8 +47,8 @@ export async function run(argv: readonly string[], io: CommandStreams = PROCESS_
     io.stdout("fringekit 0.1.0\n");
     return 0;
   }
-  const command = Object.hasOwn(COMMANDS, name) ? COMMANDS[name] : undefined;
-  if (!command) {
+  const load = Object.hasOwn(COMMANDS, name) ? COMMANDS[name] : undefined;
+  if (!load) {
     io.stderr(`fringekit: unknown command "${name}" (commands: ${Object.keys(COMMANDS).join(", ")}); see fringekit --help\n`);
     return 2;
   }
@@ -60,6 +57,7 @@ export async function run(argv: readonly string[], io: CommandStreams = PROCESS_
     return 0;
   }
   try {
+    const command = await load();
     const output = await command(rest);
     if (output.stdout) io.stdout(output.stdout);
     for (const line of output.stderr ?? []) io.stderr(`${line}\n`);
