@@ -7,12 +7,8 @@
  * Derivatives come from mathjs's symbolic `derivative`, checked by the same whitelist.
  */
 import type { MathNode } from "mathjs";
-// The single-file build of mathjs: a fraction of the load time of its module graph (see mathjsBundle.d.ts).
-import math from "mathjs/lib/browser/math.js";
 import { InvalidArgumentError } from "../errors.js";
-
-const parse = (text: string): MathNode => math.parse(text);
-const symbolicDerivative = (tree: MathNode, name: string): MathNode => math.derivative(tree, name);
+import { formulaDerivative as symbolicDerivative, parseFormula as parse } from "./formulaEngine.js";
 
 /** Longest formula accepted (characters); longer strings are refused before parsing. */
 export const MAX_FORMULA_LENGTH = 4000;

@@ -4,6 +4,7 @@ export * from "./status.js";
 export * from "./leastSquares.js";
 export * from "./formula.js";
 export * from "./formulaModel.js";
+export { setFormulaEngine, type FormulaEngine } from "./formulaEngine.js";
 export * from "./fitProfile.js";
 export * from "./autoStart.js";
 export * from "./profileInterval.js";
