@@ -10,14 +10,15 @@ import { setPngDpi } from "./pngDensity.js";
  * @param widthMm physical width of the figure (mm)
  */
 export async function svgToPng(svg: string, widthMm: number, dpi: number): Promise<Uint8Array> {
-  const { Resvg } = await import("@resvg/resvg-js");
+  const { renderAsync } = await import("@resvg/resvg-js");
   const fonts = figureFonts();
-  const renderer = new Resvg(svg, {
+  // renderAsync draws on a worker thread, so a PDF can be written meanwhile.
+  const image = await renderAsync(svg, {
     fitTo: { mode: "width", value: Math.round((widthMm / 25.4) * dpi) },
     background: "#ffffff",
     font: { fontFiles: [fonts.regular, fonts.italic], loadSystemFonts: false, defaultFontFamily: "Liberation Sans", sansSerifFamily: "Liberation Sans" },
     shapeRendering: 2,
     textRendering: 1,
   });
-  return setPngDpi(new Uint8Array(renderer.render().asPng()), dpi);
+  return setPngDpi(new Uint8Array(image.asPng()), dpi);
 }

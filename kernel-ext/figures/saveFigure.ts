@@ -35,9 +35,8 @@ export async function saveFigure(figure: FigureSpec, basePath: string, options: 
   await mkdir(path.dirname(path.resolve(base)), { recursive: true });
   const renderer = await FigureRenderer.start();
   try {
-    const written: ExportedFigure[] = [];
-    for (const format of formats) written.push(await exportFigure(figure, `${base}.${format}`, { format, dpi: options.dpi ?? 600 }, renderer));
-    return written;
+    // All formats at once: the PNG is drawn on a worker thread while the PDF is written.
+    return await Promise.all(formats.map((format) => exportFigure(figure, `${base}.${format}`, { format, dpi: options.dpi ?? 600 }, renderer)));
   } finally {
     await renderer.close();
   }
