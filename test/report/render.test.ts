@@ -1,0 +1,100 @@
+// The figure renderer (src/report/render): markup, ticks, colours, compact paths and the SVG
+// it writes for the builders' figures.
+import { spawnSync } from "node:child_process";
+import { existsSync } from "node:fs";
+import { describe, expect, it } from "vitest";
+import { fitFigure } from "../../src/report/figures/fitFigure.js";
+import { parseColor, scaleColor } from "../../src/report/render/color.js";
+import { figureScene } from "../../src/report/render/figureScene.js";
+import { figureSvg } from "../../src/report/render/figureSvg.js";
+import { parseMarkup, textWidth } from "../../src/report/render/markup.js";
+import { PathBuilder, type SceneItem } from "../../src/report/render/scene.js";
+import { autoTicks, tickLabel } from "../../src/report/render/ticks.js";
+import { b1Profile, fitB1 } from "../../bench/B1.js";
+import { exampleFigures } from "./renderExamples.js";
+
+const PYTHON = "/usr/bin/python3";
+
+describe("parseMarkup(text)", () => {
+  it("parseMarkup('Intensity <i>I</i> (10<sup>3</sup> counts)') gives italic and superscript runs", () => {
+    expect(parseMarkup("Intensity <i>I</i> (10<sup>3</sup> counts)")).toEqual([
+      { text: "Intensity ", italic: false, shift: null },
+      { text: "I", italic: true, shift: null },
+      { text: " (10", italic: false, shift: null },
+      { text: "3", italic: false, shift: "sup" },
+      { text: " counts)", italic: false, shift: null },
+    ]);
+  });
+  it("parseMarkup decodes entities (HTML 5 named and numeric references) and drops unknown tags", () => {
+    expect(parseMarkup("a &amp; b &lt;c&gt; &#963; &#x3c7; <span>x</span>").map((r) => r.text).join("")).toBe("a & b <c> σ χ x");
+  });
+  it("textWidth('10', 10) is two digit advances of Liberation Sans (556/1000 em each, from the font's hmtx table)", () => {
+    expect(textWidth("10", 10)).toBeCloseTo(11.12, 10);
+  });
+});
+
+describe("autoTicks(low, high, target) and tickLabel(value, step)", () => {
+  it("autoTicks(-5.63, 5.63, 5) steps by 5 (1-2-5 series, common practice)", () => {
+    expect(autoTicks(-5.63, 5.63, 5)).toEqual({ values: [-5, 0, 5], step: 5 });
+  });
+  it("autoTicks(0.8374, 0.8626, 5) steps by 0.01 and keeps ticks inside the range", () => {
+    const { values, step } = autoTicks(0.8374, 0.8626, 5);
+    expect(step).toBeCloseTo(0.01, 15);
+    expect(values).toEqual([0.84, 0.85, 0.86]);
+  });
+  it("tickLabel uses the step's decimals, drops trailing zeros and writes a true minus (U+2212)", () => {
+    expect([tickLabel(-0.5, 0.5), tickLabel(1, 0.5), tickLabel(1.5, 0.5), tickLabel(-0, 1), tickLabel(0.86, 0.01)]).toEqual(["−0.5", "1", "1.5", "0", "0.86"]);
+  });
+});
+
+describe("parseColor(css) and scaleColor(scale, t)", () => {
+  it("parseColor reads #rgb, #rrggbb and rgba() (CSS Color Module Level 3)", () => {
+    expect(parseColor("#abc")).toEqual({ hex: "#aabbcc", alpha: 1 });
+    expect(parseColor("rgba(20, 61, 115, 0.18)")).toEqual({ hex: "#143d73", alpha: 0.18 });
+    expect(parseColor("nonsense").alpha).toBe(0);
+  });
+  it("scaleColor halfway between #000000 and #ffffff is #808080 (linear in sRGB components, 127.5 rounds up; hand count)", () => {
+    expect(scaleColor([[0, "#000000"], [1, "#ffffff"]], 0.5)).toBe("#808080");
+    expect(scaleColor([[0, "#143d73"], [0.5, "#f4f4f4"], [1, "#74280e"]], 1)).toBe("#74280e");
+  });
+});
+
+describe("PathBuilder", () => {
+  it("writes coordinates rounded to 0.1 px, relative after the first point", () => {
+    const d = new PathBuilder().move(10.04, 20.06).line(12.5, 20.06).line(12.5, 18).dot(0.55, -1).toString();
+    // (0.55, −1) rounds to (0.6, −1): a move of (−11.9, −19) from (12.5, 18) (hand count).
+    expect(d).toBe("M10 20.1h2.5v-2.1m-11.9-19h0");
+  });
+});
+
+function paths(items: SceneItem[]): number {
+  return items.reduce((n, item) => n + (item.type === "group" ? paths(item.items) : item.type === "path" ? 1 : 0), 0);
+}
+
+describe("figureSvg(figure)", () => {
+  it("figureSvg(fitFigure of B1's 4096-point fit) is at most 200 KB, one path per trace, sized in mm", () => {
+    const profile = b1Profile(1);
+    const result = fitB1(profile, "poisson");
+    const figure = fitFigure(profile, result);
+    const svg = figureSvg(figure);
+    expect(svg.length).toBeLessThanOrEqual(200 * 1024); // issue 14's size goal for this figure
+    expect(svg).toMatch(/<svg\b[^>]*width="85mm" height="70mm" viewBox="0 0 321 265"/);
+    // Three traces (data, model, residuals) draw three paths; axes, ticks, legend and guide add the rest.
+    const scene = figureScene(figure);
+    const traceGroups = scene.items.filter((i) => i.type === "group");
+    expect(traceGroups.map((g) => (g.type === "group" ? paths(g.items) : 0))).toEqual([2, 1]);
+  });
+
+  it("every example figure is well-formed XML with text as text (parsed by Python's xml.etree)", () => {
+    if (!existsSync(PYTHON)) {
+      console.warn("SKIPPED: XML check (no /usr/bin/python3)");
+      return;
+    }
+    for (const { name, figure } of exampleFigures()) {
+      const svg = figureSvg(figure);
+      const run = spawnSync(PYTHON, ["-c", "import sys, xml.etree.ElementTree as E; r = E.fromstring(sys.stdin.buffer.read()); print(sum(1 for e in r.iter() if e.tag.endswith('text')))"], { input: svg, encoding: "utf8" });
+      expect(run.status, `${name}: ${run.stderr}`).toBe(0);
+      expect(Number(run.stdout), name).toBeGreaterThan(5);
+    }
+  });
+});
