@@ -14,12 +14,19 @@ const HERE = dirname(fileURLToPath(import.meta.url));
 const ROOT = dirname(HERE);
 const ROUNDS = 5;
 
-function timed(command: string, args: string[]): number {
+/** GNU time (Debian package "time") reports the child's CPU time, which the machine's load disturbs far less than wall time. */
+const GNU_TIME = "/usr/bin/time";
+
+function timed(command: string, args: string[]): { wall: number; cpu: number } {
+  const withCpu = existsSync(GNU_TIME);
   const t0 = performance.now();
-  const run = spawnSync(command, args, { encoding: "utf8", cwd: ROOT });
-  const seconds = (performance.now() - t0) / 1000;
+  const run = withCpu
+    ? spawnSync(GNU_TIME, ["-f", "B7CPU %U %S", command, ...args], { encoding: "utf8", cwd: ROOT })
+    : spawnSync(command, args, { encoding: "utf8", cwd: ROOT });
+  const wall = (performance.now() - t0) / 1000;
   if (run.status !== 0) throw new Error(`${command} ${args.join(" ")} failed: ${run.stderr}`);
-  return seconds;
+  const m = /B7CPU ([\d.]+) ([\d.]+)/.exec(run.stderr ?? "");
+  return { wall, cpu: m ? Number(m[1]) + Number(m[2]) : NaN };
 }
 
 const median = (v: number[]) => [...v].sort((a, b) => a - b)[Math.floor(v.length / 2)]!;
@@ -39,18 +46,19 @@ export async function main(): Promise<void> {
     for (let i = 0; i < profile.x.length; i++) lines.push(`${profile.x[i]},${profile.y[i]},${result.model[i]},${result.residuals[i]}`);
     const data = join(work, "b1-fit.csv");
     writeFileSync(data, `${lines.join("\n")}\n`);
-    const fk: number[] = [], mpl: number[] = [];
+    const fk: number[] = [], mpl: number[] = [], fkCpu: number[] = [], mplCpu: number[] = [];
     for (let round = 0; round < ROUNDS; round++) {
       // Interleaved A, B so both see the same load.
-      fk.push(timed(process.execPath, [join(HERE, "figureExport.mjs"), data, join(work, "fringekit")]));
-      mpl.push(timed(PYTHON, [join(HERE, "reference", "fit_figure_matplotlib.py"), data, join(work, "matplotlib")]));
-      process.stdout.write(`B7 round ${round + 1}: fringekit ${fk[round]!.toFixed(2)} s, matplotlib ${mpl[round]!.toFixed(2)} s (loadavg ${load()})\n`);
+      const a = timed(process.execPath, [join(HERE, "figureExport.mjs"), data, join(work, "fringekit")]);
+      const b = timed(PYTHON, [join(HERE, "reference", "fit_figure_matplotlib.py"), data, join(work, "matplotlib")]);
+      fk.push(a.wall); fkCpu.push(a.cpu); mpl.push(b.wall); mplCpu.push(b.cpu);
+      process.stdout.write(`B7 round ${round + 1}: fringekit ${a.wall.toFixed(2)} s (CPU ${a.cpu.toFixed(2)} s), matplotlib ${b.wall.toFixed(2)} s (CPU ${b.cpu.toFixed(2)} s) (loadavg ${load()})\n`);
     }
     const sizes = (base: string) => ["svg", "pdf", "png"].map((ext) => `${ext} ${(statSync(join(work, `${base}.${ext}`)).size / 1024).toFixed(0)} KB`).join(", ");
     process.stdout.write(`B7 files: fringekit ${sizes("fringekit")}; matplotlib ${sizes("matplotlib")}\n`);
     const svgKb = statSync(join(work, "fringekit.svg")).size / 1024;
     const a = median(fk), b = median(mpl);
-    process.stdout.write(`B7 measured under load (loadavg ${load()}); medians of ${ROUNDS}\n`);
+    process.stdout.write(`B7 measured under load (loadavg ${load()}); medians of ${ROUNDS}; CPU time ratio ${(median(fkCpu) / median(mplCpu)).toFixed(2)} (fringekit ${median(fkCpu).toFixed(2)} s, matplotlib ${median(mplCpu).toFixed(2)} s)\n`);
     process.stdout.write(`B7 figure export ratio ${(a / b).toFixed(2)} (fringekit ${a.toFixed(2)} s, matplotlib ${b.toFixed(2)} s; svg ${svgKb.toFixed(0)} KB)\n`);
   } finally {
     rmSync(work, { recursive: true, force: true });

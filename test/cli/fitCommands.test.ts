@@ -96,7 +96,7 @@ describe("fringekit fit FILE", () => {
 });
 
 describe("fringekit fit FILE --figure / fringekit kernel install", () => {
-  it("fringekit fit line.csv --figure fit.svg writes an SVG figure (headless Chromium, closed after)", async () => {
+  it("fringekit fit line.csv --figure fit.svg writes an SVG figure (no browser)", async () => {
     const figure = join(work, "fit.svg");
     const { code } = await runInProcess(["fit", line, "--figure", figure]);
     expect(code).toBe(0);
