@@ -11,10 +11,11 @@ const root = join(dirname(fileURLToPath(import.meta.url)), "..");
 const out = join(root, "out");
 const jupyterData = join(root, ".jupyter-local");
 const python = "/usr/bin/python3";
-const chromium = "/usr/bin/chromium";
-// Debian packages: nbclient runs the notebooks, Chromium renders the figures (in Liberation Sans
-// when Arial is not installed). nbconvert is optional: only the fallback HTML copies need it.
-const debianPackages = ["python3-nbclient", "python3-nbformat", "python3-jupyter-client", "chromium", "fonts-liberation"];
+// The figures are drawn without a browser, in Liberation Sans (embedded in the PDFs).
+const font = "/usr/share/fonts/truetype/liberation/LiberationSans-Regular.ttf";
+// Debian packages: nbclient runs the notebooks, fonts-liberation gives the figures their font.
+// nbconvert is optional: only the fallback HTML copies need it.
+const debianPackages = ["python3-nbclient", "python3-nbformat", "python3-jupyter-client", "fonts-liberation"];
 const outputFolders = ["notebooks", "html", "figures", "results"];
 const steps = 6;
 let step = 0;
@@ -62,13 +63,13 @@ if (!existsSync(installedLock) || statSync(installedLock).mtimeMs < statSync(joi
   say("  node_modules is up to date");
 }
 
-stage("Jupyter (nbclient, nbformat, jupyter_client) and Chromium");
+stage("Jupyter (nbclient, nbformat, jupyter_client) and the figure font");
 const probeJupyter = () => spawnSync(python, ["-c", "import nbclient, nbformat, jupyter_client"], { stdio: "ignore" }).status === 0;
-const ready = () => existsSync(python) && probeJupyter() && existsSync(chromium);
+const ready = () => existsSync(python) && probeJupyter() && (existsSync(font) || Boolean(process.env.FRINGEKIT_FONT_DIR));
 if (!ready()) {
   const canInstall = process.getuid?.() === 0 && existsSync("/usr/bin/apt-get");
   if (!canInstall) {
-    fail(`missing: ${[!existsSync(python) || !probeJupyter() ? `Python packages for ${python}` : "", !existsSync(chromium) ? chromium : ""].filter(Boolean).join(" and ")}.\n` +
+    fail(`missing: ${[!existsSync(python) || !probeJupyter() ? `Python packages for ${python}` : "", !existsSync(font) ? font : ""].filter(Boolean).join(" and ")}.\n` +
       `Install them with\n  sudo apt-get install -y ${debianPackages.join(" ")}\n` +
       `(or, for ${python}, the pip packages nbclient nbformat jupyter_client) and run npm run demo again`);
   }
@@ -76,7 +77,7 @@ if (!ready()) {
   const env = { ...process.env, DEBIAN_FRONTEND: "noninteractive" };
   run("apt-get", ["update", "-qq"], { env });
   if (run("apt-get", ["install", "-y", "-qq", "--no-install-recommends", ...debianPackages], { env }) !== 0 || !ready()) {
-    fail("installing the Jupyter packages or Chromium failed (see above)");
+    fail("installing the Jupyter packages or fonts-liberation failed (see above)");
   }
 } else {
   say("  found");
