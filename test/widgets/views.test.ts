@@ -100,8 +100,8 @@ run("widget views in Chromium", () => {
     const svg = await readFile((await download.path())!, "utf8");
     expect(svg.startsWith("<svg")).toBe(true);
     expect(svg).toContain("model (sliders)");
-    // The live curve was a real 512-point path in the exported figure ...
-    expect((svg.match(/class="js-line"[^>]*d="M[^"]{2000,}/g) ?? []).length).toBeGreaterThanOrEqual(1);
+    // The live curve was a real 512-point path in the exported figure (one path, in the first series colour) ...
+    expect((svg.match(/<path d="M[^"]{1000,}" fill="none" stroke="#143d73"/g) ?? []).length).toBeGreaterThanOrEqual(1);
     // ... and the on-screen figure is back to its canvas-drawn live layer.
     expect(await h.page.evaluate(`fk.views.get(${JSON.stringify(id)}).plotEl.data[2].y.length`)).toBe(1);
   });

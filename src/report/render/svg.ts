@@ -23,7 +23,7 @@ export function sceneToSvg(scene: Scene): string {
   };
   scene.items.forEach(write);
   return (
-    `<?xml version="1.0" encoding="UTF-8"?>\n` +
+    // No XML declaration: UTF-8 is XML's default, and an SVG that starts with <svg embeds anywhere.
     `<svg xmlns="http://www.w3.org/2000/svg" width="${scene.widthMm}mm" height="${scene.heightMm}mm" viewBox="0 0 ${scene.width} ${scene.height}" font-family="${escapeHtml(scene.fontFamily)}">\n` +
     `<rect width="${scene.width}" height="${scene.height}" fill="${scene.background}"/>\n` +
     `${out.join("\n")}\n</svg>\n`
