@@ -7,6 +7,7 @@ import { batchCommand } from "./commands/batch.js";
 import { compareCommand } from "./commands/compare.js";
 import { fitCommand } from "./commands/fit.js";
 import { kernelCommand } from "./commands/kernel.js";
+import { mergeCommand } from "./commands/merge.js";
 import { modelsCommand } from "./commands/models.js";
 import { profileCommand } from "./commands/profile.js";
 import { replayCommand } from "./commands/replay.js";
@@ -20,6 +21,7 @@ const COMMANDS: Record<string, (words: readonly string[]) => CommandOutput | Pro
   compare: compareCommand,
   profile: profileCommand,
   batch: batchCommand,
+  merge: mergeCommand,
   kernel: kernelCommand,
   replay: replayCommand,
 };
