@@ -105,6 +105,7 @@ export async function batchCommand(words: readonly string[]): Promise<CommandOut
   progress.end();
   const ordered = positions.map((k) => rows.get(k)!);
   const notes: string[] = [];
+  if (previous) notes.push(`resumed: ${positions.length - todo.length} rows of the earlier run kept, ${todo.length} fitted now`);
   if (stats && stats.workerStartMs.length > 0) notes.push(`${stats.workerStartMs.length} worker threads started in ${seconds(Math.min(...stats.workerStartMs))}–${seconds(Math.max(...stats.workerStartMs))}${stats.workerFailures > 0 ? `; ${stats.workerFailures} failed while fitting (their inputs are error rows; --resume tries them again)` : ""}`);
   if (shard) {
     writer.finish();
