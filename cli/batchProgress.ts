@@ -1,6 +1,7 @@
 /**
  * Progress of a batch on stderr: on a terminal a bar redrawn in place with the rate and the
- * time left; otherwise (a log file, a Slurm job) one plain line every few seconds.
+ * time left; otherwise (a log file, a Slurm job) one plain line every few seconds and a last
+ * one with the rate and the time taken.
  */
 
 /** Reports progress; call `step` per finished row and `end` once. */
@@ -58,7 +59,7 @@ export function progressReporter(total: number, label: string, stream: NodeJS.Wr
         stream.write(`batch: ${status()}\n`);
       }
     },
-    end() { if (done > 0 && lastLine !== start) stream.write(`batch: ${status()}\n`); },
+    end() { if (done > 0) stream.write(`batch: ${status()}\n`); },
   };
 }
 
