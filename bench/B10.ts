@@ -72,11 +72,14 @@ export async function main(): Promise<void> {
     const taskSeconds = logs.map((n) => Number(/took (?:(\d+) min )?(\d+) s/.exec(readFileSync(join(dir, "parts", "logs", n), "utf8"))?.slice(1).reduce((a, v, i) => a + (i === 0 ? 60 * Number(v ?? 0) : Number(v)), 0) ?? NaN));
     console.log(`B10 Slurm array ${tasks} tasks × 1 CPU on ${cores} CPUs: ${slurmSeconds.toFixed(1)} s from sbatch to done, ${(count / slurmSeconds).toFixed(1)} profiles/s; fitting time per task (from its log) ${taskSeconds.map((s) => `${s} s`).join(", ")}   (loadavg ${loadSlurm})`);
     // Sizing model: a task's wall time ≈ overhead + (profiles per task) × cost per profile on one CPU.
-    const perProfile = localCpu / count;
+    // Both terms from this run: the fitting part from the task logs (first to last row), the
+    // overhead as what is left of each wave of `cores` concurrent tasks (scheduling, Node and
+    // library start in the main thread and the worker thread, merge of nothing).
     const meanTask = taskSeconds.reduce((a, b) => a + b, 0) / taskSeconds.length;
     const waves = Math.ceil(tasks / cores);
-    const overhead = slurmSeconds / waves - (count / tasks) * perProfile;
-    console.log(`B10 sizing (measured under load): cost per profile ≈ ${(perProfile * 1000).toFixed(0)} ms CPU (one-machine CPU time / profiles); per-task overhead ≈ ${overhead.toFixed(1)} s (scheduling, process and library start: wall per wave of ${cores} tasks minus its fitting); mean fitting time per task ${meanTask.toFixed(1)} s`);
+    const overhead = slurmSeconds / waves - meanTask;
+    const perProfile = meanTask / (count / tasks);
+    console.log(`B10 sizing (measured under load): fitting ≈ ${(perProfile * 1000).toFixed(0)} ms per profile per CPU (task logs), ${((localCpu / count) * 1000).toFixed(0)} ms CPU per profile in the one-machine run (start-up included); per-task overhead ≈ ${overhead.toFixed(1)} s (wall per wave of ${cores} tasks minus its fitting)`);
     if (!same) console.log(`B10 merge: ${merge.stderr.trim()}`);
     console.log(`B10 slurm array ${tasks} tasks: ${(count / slurmSeconds).toFixed(1)} profiles/s, merged ${same ? "==" : "!="} local (one machine ${(count / localSeconds).toFixed(1)} profiles/s, ${count} profiles)`);
   } finally {
