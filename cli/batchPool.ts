@@ -42,6 +42,9 @@ export interface PoolStats {
   workerFailures: number;
 }
 
+/** How long results of a dead worker may still arrive after its error or exit event (ms). */
+const LATE_RESULT_MS = 200;
+
 /** Consecutive workers failing before they are ready, after which the batch stops. */
 const START_FAILURE_LIMIT = 3;
 
@@ -51,6 +54,8 @@ interface Slot<I> {
   ready: boolean;
   stopping: boolean;
   gone: boolean;
+  /** Set when the worker failed or exited; no more work is sent to it. */
+  dying: boolean;
   created: number;
 }
 
@@ -82,6 +87,7 @@ export function runPool<I, R>(options: PoolOptions<I, R>): Promise<PoolStats> {
       else resolve(stats);
     };
     const topUp = (slot: Slot<I>): void => {
+      if (slot.dying) return;
       const batch: PoolTask<I>[] = [];
       while (slot.held.length + batch.length < depth && queue.length > 0) batch.push(queue.pop()!);
       if (batch.length > 0) {
@@ -115,7 +121,7 @@ export function runPool<I, R>(options: PoolOptions<I, R>): Promise<PoolStats> {
     const spawn = (): void => {
       if (queue.length === 0) return;
       const worker = new Worker(options.workerUrl, { workerData: options.workerData });
-      const slot: Slot<I> = { worker, held: [], ready: false, stopping: false, gone: false, created: performance.now() };
+      const slot: Slot<I> = { worker, held: [], ready: false, stopping: false, gone: false, dying: false, created: performance.now() };
       slots.add(slot);
       worker.on("message", (message: { ready: true } | { position: number; result: R }) => {
         if (settled || slot.gone) return;
@@ -131,14 +137,22 @@ export function runPool<I, R>(options: PoolOptions<I, R>): Promise<PoolStats> {
         if (++done === total) return settle();
         topUp(slot);
       });
-      worker.on("error", (error) => lost(slot, `the worker thread failed: ${error.message.replace(/\s*\n\s*/g, " ")}`));
-      worker.on("messageerror", (error) => lost(slot, `a worker message could not be read: ${error.message}`));
+      // Results the worker posted just before it died can arrive after its error or exit event
+      // (they travel on another port), so the loss is handled a moment later: only the input
+      // still unanswered then is blamed.
+      const dying = (why: string): void => {
+        if (slot.dying) return;
+        slot.dying = true;
+        setTimeout(() => lost(slot, why), LATE_RESULT_MS);
+      };
+      worker.on("error", (error) => dying(`the worker thread failed: ${error.message.replace(/\s*\n\s*/g, " ")}`));
+      worker.on("messageerror", (error) => dying(`a worker message could not be read: ${error.message}`));
       worker.on("exit", (code) => {
         if (slot.stopping && slot.held.length === 0) {
           slots.delete(slot);
           return;
         }
-        lost(slot, `the worker thread stopped without a result (exit code ${code})`);
+        dying(`the worker thread stopped without a result (exit code ${code})`);
       });
       // Hand out work only once the worker is ready, so a slow starter holds nothing others could do.
     };

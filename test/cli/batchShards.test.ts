@@ -177,17 +177,17 @@ describe("fringekit batch --resume", () => {
     const kept = readFileSync(partial, "utf8").split("\n").filter((l) => l.startsWith('{"row"')).length;
     expect(kept).toBeGreaterThanOrEqual(3);
     expect(kept).toBeLessThan(12);
-    const refused = runCli(["batch", folder, "--jobs", "1", "--quiet", "--out", out]);
+    const refused = runCli(["batch", folder, "--jobs", "1", "--quiet", "--out", out], { timeout: 600_000 });
     expect(refused.code).toBe(2);
     expect(refused.stderr).toMatch(/an unfinished part of an earlier run is there; add --resume to continue it/);
-    const resumed = runCli(["batch", folder, "--jobs", "2", "--quiet", "--resume", "--out", out]);
+    const resumed = runCli(["batch", folder, "--jobs", "2", "--quiet", "--resume", "--out", out], { timeout: 600_000 });
     expect(resumed.code).toBe(0);
     expect(resumed.stderr).toMatch(new RegExp(`resumed: ${kept} rows of the earlier run kept, ${12 - kept} fitted now`));
     expect(existsSync(partial)).toBe(false);
     const clean = join(work, "clean.csv");
-    expect(runCli(["batch", ...inputs, "--jobs", "2", "--quiet", "--out", clean]).code).toBe(0);
+    expect(runCli(["batch", ...inputs, "--jobs", "2", "--quiet", "--out", clean], { timeout: 600_000 }).code).toBe(0);
     expect(readFileSync(out, "utf8")).toBe(readFileSync(clean, "utf8"));
-  }, 240_000);
+  }, 1_200_000);
 });
 
 describe("fringekit batch STACK.tif --page each", () => {
