@@ -4,7 +4,7 @@
  * `fringekit batch --list LIST --shard i/N --resume`, so a task that failed or hit its time
  * limit is re-run on its own with `sbatch --array=i job.sh` and continues where it stopped.
  */
-import { basename, dirname, join, resolve } from "node:path";
+import { basename, dirname, join } from "node:path";
 import type { ParsedArgs } from "./parseArgs.js";
 
 /** What the script needs. */
@@ -97,7 +97,3 @@ export function shellWord(word: string): string {
   return /^[A-Za-z0-9_./:=@%+,-]+$/.test(word) ? word : `'${word.replace(/'/g, `'\\''`)}'`;
 }
 
-/** Absolute form of a folder for #SBATCH --chdir. */
-export function absoluteFolder(path: string): string {
-  return resolve(path);
-}
