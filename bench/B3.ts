@@ -1,7 +1,11 @@
-// B3 of ../shared/bench/PROBLEMS.md: 2000 B1-like profiles (seeds 1…2000) written as CSV files
-// and fitted by the built command `fringekit batch`, first with one worker (--jobs 1, in the
-// main thread), then with one worker thread per core. The reference is the one-core run in the
-// same benchmark run; the figure is the speed-up. B3_PROFILES=200 makes a quicker run.
+// B3 of ../shared/bench/PROBLEMS.md: B1-like profiles (4096 pixels, seeds 1…N) written as CSV
+// files and fitted by the built command `fringekit batch`, with one worker (--jobs 1, fitted in
+// the main thread) and with one worker thread per core. The two runs alternate (1, N, 1, N, …)
+// so that a change of the machine's load hits both; the figure is the ratio of the medians.
+// Also printed: the CPU time of each run (user + system of the child, from /proc) — on a
+// machine shared with others the CPU ratio shows the overhead of the parallel run even when the
+// wall-clock speed-up cannot — and the start time of each worker thread.
+// B3_PROFILES=300 B3_PAIRS=3 make a quicker run (defaults 2000 profiles, 3 pairs).
 import { spawnSync } from "node:child_process";
 import { existsSync, mkdtempSync, readFileSync, rmSync, writeFileSync } from "node:fs";
 import { availableParallelism, tmpdir } from "node:os";
@@ -14,7 +18,8 @@ const BUILT = new URL("../dist/cli/main.js", import.meta.url);
 // B1 truth (SI); pixel averaging over the 5.5 µm pitch as in B1.
 const TRUTH = { amplitude: 20000, background: 150, center: 0.37e-3, separation: 0.5e-3, width: 0.1e-3, visibility: 0.85, phase: 0.3, wavelength: 632.8e-9, distance: 1, pixelWidth: 5.5e-6 };
 
-function writeProfiles(dir: string, count: number): string[] {
+/** Writes `count` B1-like profiles as CSV files into `dir`; returns their paths. */
+export function writeProfiles(dir: string, count: number): string[] {
   const model = getModel("two-slit");
   const x = pixelPositions(4096, 5.5e-6);
   const files: string[] = [];
@@ -29,29 +34,56 @@ function writeProfiles(dir: string, count: number): string[] {
   return files;
 }
 
-function batch(files: string[], jobs: number, out: string): { seconds: number; ok: number } {
+/** CPU seconds (user + system) of this process's waited-for children, from /proc/self/stat. */
+export function childrenCpuSeconds(): number {
+  const fields = readFileSync("/proc/self/stat", "utf8").replace(/^.*\) /, "").split(" ");
+  // Fields after the command: state is index 0, so cutime (16th field of the file) is index 13, cstime 14; clock ticks of 1/100 s (common practice on Linux).
+  return (Number(fields[13]) + Number(fields[14])) / 100;
+}
+
+interface Run { seconds: number; cpu: number; ok: number; workerStart: string; load: string }
+
+function batch(listFile: string, jobs: number, out: string): Run {
+  const load = readFileSync("/proc/loadavg", "utf8").split(" ").slice(0, 3).join(" ");
+  const cpu0 = childrenCpuSeconds();
   const t0 = performance.now();
-  const run = spawnSync(process.execPath, [BIN, "batch", ...files, "--fix", "pixelWidth=5.5um", "--jobs", String(jobs), "--out", out], { encoding: "utf8" });
+  const run = spawnSync(process.execPath, [BIN, "batch", "--list", listFile, "--fix", "pixelWidth=5.5um", "--jobs", String(jobs), "--quiet", "--out", out], { encoding: "utf8" });
   const seconds = (performance.now() - t0) / 1000;
+  const cpu = childrenCpuSeconds() - cpu0;
   if (run.status !== 0 && run.status !== 1) throw new Error(`fringekit batch failed (exit ${run.status}): ${run.stderr}`);
   const rows = readFileSync(out, "utf8").trim().split("\n").slice(1);
-  return { seconds, ok: rows.filter((r) => r.split(",")[1] === "ok").length };
+  const workerStart = /worker threads started in ([\d.]+ s–[\d.]+ s)/.exec(run.stderr)?.[1] ?? "-";
+  return { seconds, cpu, ok: rows.filter((r) => r.split(",")[1] === "ok").length, workerStart, load };
+}
+
+function median(values: number[]): number {
+  const s = [...values].sort((a, b) => a - b);
+  return s.length % 2 ? s[(s.length - 1) / 2]! : (s[s.length / 2 - 1]! + s[s.length / 2]!) / 2;
 }
 
 /** Runs B3 and prints the figures; the last line is the summary. */
 export async function main(): Promise<void> {
   if (!existsSync(BUILT)) throw new Error("B3 runs the built command: run `npm run build` first");
   const count = Number(process.env["B3_PROFILES"] ?? 2000);
+  const pairs = Number(process.env["B3_PAIRS"] ?? 3);
   const cores = availableParallelism();
   const dir = mkdtempSync(join(tmpdir(), "fringekit-b3-"));
   try {
-    const files = writeProfiles(dir, count);
-    const one = batch(files, 1, join(dir, "one.csv"));
-    const all = batch(files, cores, join(dir, "all.csv"));
-    const rate1 = count / one.seconds;
-    const rateN = count / all.seconds;
-    console.log(`B3 ${count} profiles of 4096 pixels: 1 core ${one.seconds.toFixed(1)} s (${one.ok} converged), ${cores} cores ${all.seconds.toFixed(1)} s (${all.ok} converged); times include process start and file reading`);
-    console.log(`B3 batch ${rate1.toFixed(1)} profiles/s on 1 core, ${rateN.toFixed(1)} on ${cores} cores (speed-up ${(rateN / rate1).toFixed(2)})`);
+    const list = join(dir, "inputs.txt");
+    writeFileSync(list, `${writeProfiles(dir, count).join("\n")}\n`);
+    const one: Run[] = [], all: Run[] = [];
+    for (let pair = 1; pair <= pairs; pair++) {
+      const a = batch(list, 1, join(dir, "one.csv"));
+      one.push(a);
+      console.log(`B3 pair ${pair}: 1 core  ${a.seconds.toFixed(1)} s wall, ${a.cpu.toFixed(1)} s CPU, ${a.ok}/${count} converged   (loadavg ${a.load})`);
+      const b = batch(list, cores, join(dir, "all.csv"));
+      all.push(b);
+      console.log(`B3 pair ${pair}: ${cores} cores ${b.seconds.toFixed(1)} s wall, ${b.cpu.toFixed(1)} s CPU, ${b.ok}/${count} converged, worker start ${b.workerStart}   (loadavg ${b.load})`);
+    }
+    const t1 = median(one.map((r) => r.seconds)), tN = median(all.map((r) => r.seconds));
+    const c1 = median(one.map((r) => r.cpu)), cN = median(all.map((r) => r.cpu));
+    console.log(`B3 CPU time ${cores} cores / 1 core: ${(cN / c1).toFixed(2)} (1.00 = the parallel run does no extra work; the rest is worker start-up and hand-over); times include process start and file reading; measured under load (loadavg above)`);
+    console.log(`B3 batch ${(count / t1).toFixed(1)} profiles/s on 1 core, ${(count / tN).toFixed(1)} on ${cores} cores (speed-up ${(t1 / tN).toFixed(2)}, median of ${pairs} interleaved pairs, ${count} profiles)`);
   } finally {
     rmSync(dir, { recursive: true, force: true });
   }

@@ -1,6 +1,7 @@
 /**
- * One batch row: fit one file and report its status, never throwing (a bad file is a row
- * with status "error" and the one-line message).
+ * One batch row: fit one input (a data file, or one page of an image stack) and report its
+ * status, never throwing (a bad file is a row with status "error" and the one-line message);
+ * and the rows as a CSV table that is safe to open in a spreadsheet.
  */
 import { FringekitError } from "../src/index.js";
 import { fitFile } from "./commands/fit.js";
@@ -9,9 +10,17 @@ import { notConvergedText } from "./fitSettings.js";
 import type { ParsedArgs } from "./parseArgs.js";
 import { UsageError } from "./usageError.js";
 
-/** Result of one file in a batch. */
+/** One input of a batch: a file, or one page (1 = first) of an image stack. */
+export interface BatchInput {
+  path: string;
+  page?: number;
+}
+
+/** Result of one input in a batch. */
 export interface BatchRow {
   file: string;
+  /** Page of an image stack (1 = first), present only for `--page each`. */
+  page?: number;
   status: "ok" | "not-converged" | "error";
   /** Stop message, or the error. */
   message: string;
@@ -20,40 +29,75 @@ export interface BatchRow {
 }
 
 /**
- * Fits one file; any error becomes a row.
- * @param path    data file
+ * Fits one input; any error becomes a row.
+ * @param input   data file (and page of a stack)
  * @param modelId model id
  * @param args    parsed command line (fit settings and data options)
  */
-export function batchRow(path: string, modelId: string, args: ParsedArgs): BatchRow {
+export function batchRow(input: BatchInput, modelId: string, args: ParsedArgs): BatchRow {
+  const where = input.page === undefined ? { file: input.path } : { file: input.path, page: input.page };
   try {
-    const { loaded, result, warnings, assumed } = fitFile(path, modelId, args);
-    return { file: path, status: result.converged ? "ok" : "not-converged", message: result.converged ? result.message : notConvergedText(result), fit: fitJson(result, loaded.profile.provenance, warnings, assumed) };
+    const pageArgs = input.page === undefined ? args : withPage(args, input.page);
+    const { loaded, result, warnings, assumed } = fitFile(input.path, modelId, pageArgs);
+    return { ...where, status: result.converged ? "ok" : "not-converged", message: result.converged ? result.message : notConvergedText(result), fit: fitJson(result, loaded.profile.provenance, warnings, assumed) };
   } catch (error) {
     const message = error instanceof FringekitError || error instanceof UsageError ? error.message : `internal error: ${error instanceof Error ? error.message : String(error)}`;
-    return { file: path, status: "error", message, fit: null };
+    return { ...where, status: "error", message, fit: null };
   }
 }
 
+function withPage(args: ParsedArgs, page: number): ParsedArgs {
+  const values = new Map(args.values);
+  values.set("page", String(page));
+  return { ...args, values };
+}
+
 /**
- * Rows → CSV: file, status, message, n, reducedChi2, aic, bic, then value and stderr (SI) of
- * every parameter.
+ * Rows → CSV: file, [page,] status, message, n, reducedChi2, aic, bic, then value and stderr
+ * (SI) of every parameter (in the order they first appear). Text cells are neutralised for
+ * spreadsheets (see spreadsheetSafe); numbers are written as JavaScript prints them (shortest
+ * text that reads back to the same double).
  * @param rows batch rows in input order
  */
 export function batchCsv(rows: readonly BatchRow[]): string {
   const names: string[] = [];
   for (const row of rows) for (const name of Object.keys(row.fit?.params ?? {})) if (!names.includes(name)) names.push(name);
-  const header = ["file", "status", "message", "n", "reducedChi2", "aic", "bic", ...names.flatMap((n) => [n, `${n}_stderr`])];
-  const lines = [header.map(csvCell).join(",")];
+  const paged = rows.some((r) => r.page !== undefined);
+  const header = ["file", ...(paged ? ["page"] : []), "status", "message", "n", "reducedChi2", "aic", "bic", ...names.flatMap((n) => [n, `${n}_stderr`])];
+  const lines = [header.map(textCell).join(",")];
   for (const row of rows) {
     const s = row.fit?.stats;
-    const cells: (string | number | null | undefined)[] = [row.file, row.status, row.message, s?.n, s?.reducedChi2, s?.aic, s?.bic];
-    for (const name of names) cells.push(row.fit?.params[name]?.value, row.fit?.params[name]?.stderr);
-    lines.push(cells.map((c) => csvCell(c === undefined || c === null ? "" : String(c))).join(","));
+    const cells: string[] = [textCell(row.file), ...(paged ? [numberCell(row.page)] : []), textCell(row.status), textCell(row.message), numberCell(s?.n), numberCell(s?.reducedChi2), numberCell(s?.aic), numberCell(s?.bic)];
+    for (const name of names) cells.push(numberCell(row.fit?.params[name]?.value), numberCell(row.fit?.params[name]?.stderr));
+    lines.push(cells.join(","));
   }
   return `${lines.join("\n")}\n`;
 }
 
-function csvCell(text: string): string {
+function numberCell(value: number | null | undefined): string {
+  return value === undefined || value === null ? "" : String(value);
+}
+
+function textCell(text: string): string {
+  return csvQuote(spreadsheetSafe(text));
+}
+
+/** A cell that a spreadsheet reads as a plain number (e.g. -0.5, +3, -1.2e-3), never as a formula. */
+const PLAIN_NUMBER = /^[+-]?(\d+\.?\d*|\.\d+)([eE][+-]?\d+)?$/;
+
+/**
+ * Text for a CSV cell that a spreadsheet will not run as a formula: a cell beginning with
+ * =, +, -, @, tab or carriage return gets a leading apostrophe (which spreadsheets show as
+ * "this is text" and hide), unless the whole cell is a plain number such as -0.5, which a
+ * spreadsheet reads as that number and which cannot call anything. Number columns are never
+ * touched; only text columns (file names, messages) pass through here.
+ * @param text the cell text
+ */
+export function spreadsheetSafe(text: string): string {
+  if (!/^[=+\-@\t\r]/.test(text) || PLAIN_NUMBER.test(text)) return text;
+  return `'${text}`;
+}
+
+function csvQuote(text: string): string {
   return /[",\n\r]/.test(text) ? `"${text.replace(/"/g, '""')}"` : text;
 }

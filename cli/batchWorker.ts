@@ -1,13 +1,17 @@
-/** Worker thread of `fringekit batch`: fits the files it is sent, one message per file. */
+/**
+ * Worker thread of `fringekit batch` (protocol in batchPool.ts): fits the inputs it is sent and
+ * answers one message per input. It loads only the fitting code a row needs.
+ */
 import { parentPort, workerData } from "node:worker_threads";
-import { batchRow } from "./batchRow.js";
+import { batchRow, type BatchInput } from "./batchRow.js";
 import type { ParsedArgs } from "./parseArgs.js";
 
 const { modelId, args } = workerData as { modelId: string; args: ParsedArgs };
-parentPort?.on("message", (message: { index: number; path: string } | null) => {
+parentPort?.on("message", (message: { tasks: { position: number; input: BatchInput }[] } | null) => {
   if (message === null) {
     parentPort?.close();
     return;
   }
-  parentPort?.postMessage({ index: message.index, row: batchRow(message.path, modelId, args) });
+  for (const task of message.tasks) parentPort?.postMessage({ position: task.position, result: batchRow(task.input, modelId, args) });
 });
+parentPort?.postMessage({ ready: true });

@@ -17,6 +17,7 @@ const COMMANDS: Record<string, () => Promise<Command>> = {
   compare: async () => (await import("./commands/compare.js")).compareCommand,
   profile: async () => (await import("./commands/profile.js")).profileCommand,
   batch: async () => (await import("./commands/batch.js")).batchCommand,
+  merge: async () => (await import("./commands/merge.js")).mergeCommand,
   kernel: async () => (await import("./commands/kernel.js")).kernelCommand,
   replay: async () => (await import("./commands/replay.js")).replayCommand,
 };

@@ -9,7 +9,10 @@ Usage:
   fringekit compare FILE --models ID,ID,... [--set ...] [--fix ...] [--noise ...] [--json] [--out FILE]
   fringekit profile FRAME [--roi X,Y,WIDTH,HEIGHT] [--dark FILE] [--flat FILE]
                 [--pixel-pitch VALUE UNIT] [--tilt auto|ANGLE] [--page N|mean] [--out FILE.csv]
-  fringekit batch FILES|FOLDERS... [--model ID] [--jobs N] --out results.csv|results.json
+  fringekit batch FILES|FOLDERS... [--list PATHS.txt] [--model ID] [--jobs N] [--page each]
+                [--shard I/N] [--resume] [--quiet] --out results.csv|results.json
+  fringekit batch FILES|FOLDERS... [options] --slurm-script job.sh --tasks N --out parts/results.csv
+  fringekit merge PARTS...|FOLDER --out results.csv|results.json
   fringekit kernel install [--user | --prefix DIR]
   fringekit replay RESULT.json [--data FILE]
 
@@ -19,6 +22,11 @@ the PNG records its pixel size).
 Column choice: --x COL --y COL --sigma COL|none (name or number, 1 = first), --x-unit UNIT.
 Values take units with or without a space: 532nm, 532 nm, 0.85m, 5.5 um.
 The default model is two-slit; "fringekit models" lists the models and their parameters.
+
+Batch: --list names a file with one data path per line; --page each fits every page of a TIFF
+stack; --shard I/N fits inputs I, I+N, I+2N, ... (counted from 1) into a part file
+(results.part-I-of-N.jsonl; inside a Slurm array job the task's shard is used when --shard is
+not given); --resume continues an interrupted run; fringekit merge joins the parts.
 
 Exit codes: 0 success; 1 a fit did not converge (the result is still written);
 2 bad input or usage. Input files are never changed; outputs are written atomically.
