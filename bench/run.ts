@@ -1,8 +1,7 @@
 // Benchmark dispatcher: `npm run bench -- B1` runs bench/B1.ts (problems in ../shared/bench/PROBLEMS.md).
 const names = process.argv.slice(2);
 if (names.length === 0) {
-  process.stderr.write("usage: npm run bench -- B1|B2|B3|B4|B5|B7|B8|B9|B10|models [more...]
-");
+  process.stderr.write("usage: npm run bench -- B1|B2|B3|B4|B5|B7|B8|B9|B10|models [more...]\n");
   process.exit(2);
 }
 for (const name of names) {
