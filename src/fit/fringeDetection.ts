@@ -1,0 +1,143 @@
+/**
+ * Is there a fringe in the profile at all, and is the fitted one sampled well enough?
+ *
+ * Test: the classical periodogram P(f_k) = |Σ (y_i − ȳ) e^{−2πi f_k x_i}|² / n of the used
+ * points at f_k = k/(N·Δx), k = 3 … N/2 (at least three periods across the profile, up to the
+ * Nyquist frequency of the median spacing Δx). Against white noise each ordinate is exponential
+ * with mean μ (Schuster 1898; Scargle 1982, ApJ 263:835, §III); μ is estimated as the median of
+ * the ordinates within ±12 bins (the 5 nearest left out) divided by ln 2, so a smooth envelope's
+ * leakage near zero frequency is part of the floor, not of the peak. With z = P_max/μ over M
+ * searched frequencies the false-alarm probability is 1 − (1 − e^{−z})^M; a fringe is significant
+ * when it is below 0.001. After a fit the power tested is the one at the fitted frequency
+ * (±1 bin), with the same M since the fit chose its frequency; the strongest local maximum of the
+ * periodogram is reported beside it. Needs about five periods across the profile.
+ * Aliasing: a fitted fringe period λL/d below two sample spacings lies above the Nyquist
+ * frequency (Shannon 1949): the data cannot show it.
+ */
+
+/** False-alarm probability below which a spectral peak counts as a fringe. */
+export const FRINGE_FALSE_ALARM = 1e-3;
+
+/** The fringe-detection outcome stored in `result.goodness.fringes`. */
+export interface FringeDetection {
+  test: "periodogram-peak";
+  /**
+   * Whether the fringe is significant (false alarm < FRINGE_FALSE_ALARM): at the fitted frequency
+   * when there is one inside the searched band, else the strongest peak.
+   */
+  significant: boolean;
+  /** Period of the strongest peak (m) and in sample spacings. */
+  peakPeriod: number;
+  peakPeriodSamples: number;
+  /** Peak power over the local noise floor (dimensionless) and its false-alarm probability. */
+  powerRatio: number;
+  falseAlarm: number;
+  /** Frequencies searched (the M of the false-alarm probability). */
+  searched: number;
+  /** Median sample spacing Δx (m). */
+  spacing: number;
+  /** Fitted fringe period λL/d (m) and in sample spacings, when the model has one. */
+  fittedPeriod?: number;
+  fittedPeriodSamples?: number;
+  /** Power at the fitted frequency (±1 bin) over the local floor (dimensionless) and its false-alarm probability. */
+  fittedPowerRatio?: number;
+  fittedFalseAlarm?: number;
+}
+
+const SMALLEST_K = 3;
+const FLOOR_HALF_WIDTH = 12;
+const FLOOR_GAP = 2;
+
+/**
+ * Periodogram test for a fringe in (x, y).
+ * @param x positions (m), increasing
+ * @param y intensities (any unit)
+ * @param fittedPeriod fitted fringe period (m), optional, for the aliasing check and its power
+ * @returns undefined when the profile is too short for the test (fewer than 16 points)
+ */
+export function detectFringes(x: Float64Array, y: Float64Array, fittedPeriod?: number): FringeDetection | undefined {
+  const n = x.length;
+  if (n < 16) return undefined;
+  const steps = new Float64Array(n - 1);
+  for (let i = 1; i < n; i++) steps[i - 1] = x[i] - x[i - 1];
+  const spacing = median(steps);
+  if (!(spacing > 0)) return undefined;
+  const span = Math.round((x[n - 1] - x[0]) / spacing) + 1;
+  const kMax = Math.floor(span / 2);
+  if (kMax <= SMALLEST_K + 2 * FLOOR_HALF_WIDTH) return undefined;
+  const df = 1 / (span * spacing);
+  const power = periodogram(x, y, df, kMax);
+  // Local floor: median of the neighbours (gap left out) / ln 2.
+  const floorAt = (k: number): number => {
+    const values: number[] = [];
+    for (let j = Math.max(1, k - FLOOR_HALF_WIDTH); j <= Math.min(kMax, k + FLOOR_HALF_WIDTH); j++) {
+      if (Math.abs(j - k) > FLOOR_GAP) values.push(power[j]);
+    }
+    return median(Float64Array.from(values)) / Math.LN2;
+  };
+  // Strongest local maximum (a spectral line, not the slope of an envelope's low-frequency power).
+  let best = SMALLEST_K, bestRatio = -Infinity;
+  for (let k = SMALLEST_K; k <= kMax; k++) {
+    if (power[k] < power[k - 1] || (k < kMax && power[k] < power[k + 1])) continue;
+    const ratio = power[k] / floorAt(k);
+    if (ratio > bestRatio) { bestRatio = ratio; best = k; }
+  }
+  const searched = kMax - SMALLEST_K + 1;
+  const falseAlarmOf = (z: number): number => (Number.isFinite(z) && z > 0 ? -Math.expm1(searched * Math.log1p(-Math.exp(-z))) : 1);
+  const detection: FringeDetection = {
+    test: "periodogram-peak",
+    significant: false,
+    peakPeriod: 1 / (best * df),
+    peakPeriodSamples: span / best,
+    powerRatio: bestRatio,
+    falseAlarm: falseAlarmOf(bestRatio),
+    searched,
+    spacing,
+  };
+  detection.significant = detection.falseAlarm < FRINGE_FALSE_ALARM;
+  if (fittedPeriod !== undefined && fittedPeriod > 0 && Number.isFinite(fittedPeriod)) {
+    detection.fittedPeriod = fittedPeriod;
+    detection.fittedPeriodSamples = fittedPeriod / spacing;
+    const k = Math.round(1 / (fittedPeriod * df));
+    if (k >= 1 && k <= kMax) {
+      let peak = 0;
+      for (let j = Math.max(1, k - 1); j <= Math.min(kMax, k + 1); j++) peak = Math.max(peak, power[j]);
+      detection.fittedPowerRatio = peak / floorAt(k);
+      // The fit chose its frequency among all of them: the same look-elsewhere factor M applies.
+      detection.fittedFalseAlarm = falseAlarmOf(detection.fittedPowerRatio);
+      detection.significant = detection.fittedFalseAlarm < FRINGE_FALSE_ALARM;
+    }
+  }
+  return detection;
+}
+
+/** P(f_k) for k = 0 … kMax by phasor recurrence (no trigonometry inside the loop). */
+function periodogram(x: Float64Array, y: Float64Array, df: number, kMax: number): Float64Array {
+  const n = x.length;
+  let mean = 0;
+  for (let i = 0; i < n; i++) mean += y[i];
+  mean /= n;
+  const re = new Float64Array(kMax + 1), im = new Float64Array(kMax + 1);
+  for (let i = 0; i < n; i++) {
+    const v = y[i] - mean;
+    const angle = -2 * Math.PI * df * (x[i] - x[0]);
+    const stepRe = Math.cos(angle), stepIm = Math.sin(angle);
+    let pr = v, pi = 0;
+    for (let k = 0; k <= kMax; k++) {
+      re[k] += pr; im[k] += pi;
+      const nr = pr * stepRe - pi * stepIm;
+      pi = pr * stepIm + pi * stepRe;
+      pr = nr;
+    }
+  }
+  const power = new Float64Array(kMax + 1);
+  for (let k = 0; k <= kMax; k++) power[k] = (re[k] * re[k] + im[k] * im[k]) / n;
+  return power;
+}
+
+function median(values: Float64Array): number {
+  if (values.length === 0) return NaN;
+  const sorted = Float64Array.from(values).sort();
+  const mid = sorted.length >> 1;
+  return sorted.length % 2 ? sorted[mid] : 0.5 * (sorted[mid - 1] + sorted[mid]);
+}
