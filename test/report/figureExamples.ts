@@ -4,6 +4,7 @@
  * Fisher-information covariance, so the figures do not depend on the fitter's iterations.
  */
 import type { FitParameter, FitResult } from "../../src/fit/types.js";
+import { goodnessOfFit } from "../../src/fit/goodness.js";
 import type { Model } from "../../src/physics/model.js";
 import { getModel } from "../../src/physics/registry.js";
 import { paramVector, pixelPositions, simulateProfile } from "../../src/physics/simulate.js";
@@ -65,7 +66,7 @@ export function resultAt(model: Model, profile: Profile, truth: Record<string, n
       n: nUsed, nFree: k, dof: nUsed - k, chi2, reducedChi2: chi2 / (nUsed - k), objective: chi2, logLikelihood: logL,
       aic: 2 * k - 2 * logL, aicc: 2 * k - 2 * logL + (2 * k * (k + 1)) / (nUsed - k - 1), bic: k * Math.log(nUsed) - 2 * logL,
     },
-    warnings: [], model: f, residuals, flagged: [],
+    warnings: [], model: f, residuals, flagged: [], goodness: goodnessOfFit(NaN, 0, false),
   };
 }
 
