@@ -73,7 +73,7 @@ export function twoSlitBroadbandPattern(options: { smallAngle?: boolean } = {}):
   };
   return {
     id: "two-slit-broadband",
-    description: "Two-slit pattern from a Gaussian spectrum of FWHM `bandwidth` (fringe contrast falls off with path difference)",
+    description: "Two-slit pattern from a spectrum Gaussian in wavenumber, FWHM `bandwidth` mapped to first order (fringe contrast falls off with path difference)",
     parameters: specs("amplitude", "center", "separation", "width", "visibility", "phase", "wavelength", "bandwidth", "distance"),
     prepare(p) {
       amplitude = p[0]!; center = p[1]!; separation = p[2]!; width = p[3]!; visibility = p[4]!;

@@ -26,7 +26,7 @@ export interface FarFieldValidity {
 
 /** Model ids of far-field (Fraunhofer) patterns; "two-slit-fresnel" is the near-field model. */
 export function isFarFieldModel(modelId: string): boolean {
-  return ["two-slit", "n-slit", "single-slit", "two-slit-broadband", "two-slit-spectrum", "two-slit-disc-source", "two-slit-gaussian-source"].includes(modelId);
+  return ["two-slit", "n-slit", "single-slit", "two-slit-broadband", "two-slit-broadband-wavelength", "two-slit-spectrum", "two-slit-disc-source", "two-slit-gaussian-source"].includes(modelId);
 }
 
 /**
