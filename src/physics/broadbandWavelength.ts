@@ -1,7 +1,7 @@
 /**
  * Two-slit pattern from a spectrum Gaussian in WAVELENGTH (as spectrometers report it, FWHM in
  * nm), computed without mapping the spectrum to wavenumber:
- *   I(x) = A ∫ S(λ) sinc²(π a s/λ) [1 + V cos(2π d s/λ + φ)] dλ,
+ *   I(x) = (A/2) ∫ S(λ) sinc²(π a s/λ) [1 + V cos(2π d s/λ + φ)] dλ,
  *   S(λ) ∝ exp(−(λ − λ0)²/(2σλ²)),  σλ = FWHM/(2√(2 ln 2)),  s = sin θ.
  * With λ = λ0(1 + ε), ε ~ N(0, r²), r = σλ/λ0 and u = 2π d s/λ0:
  *   ⟨e^{iu/(1+ε)} h(ε)⟩ = e^{iu} e^{−u²r²/2} ⟨h(η − i u r²) e^{iu(η − iur²)²/(1 + η − iur²)}⟩_η
@@ -89,7 +89,7 @@ export function twoSlitBroadbandWavelengthPattern(options: { smallAngle?: boolea
       const angle = u + phase!;
       fringe = damping * (Math.cos(angle) * gr - Math.sin(angle) * gi);
     }
-    return amplitude! * (mean + visibility! * fringe);
+    return 0.5 * amplitude! * (mean + visibility! * fringe); // amplitude = coherent peak
   };
   const shifted = new Float64Array(9);
   return {
