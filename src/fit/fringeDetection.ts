@@ -4,11 +4,11 @@
  * Test: the classical periodogram P(f_k) = |Σ (y_i − ȳ) e^{−2πi f_k x_i}|² / n of the used
  * points at f_k = k/(N·Δx), k = 3 … N/2 (at least three periods across the profile, up to the
  * Nyquist frequency of the median spacing Δx). Against white noise each ordinate is exponential
- * with mean μ (Schuster 1898; Scargle 1982, ApJ 263:835, §III); μ is estimated as the median of
- * the ordinates within ±12 bins (the 5 nearest left out) divided by ln 2, so a smooth envelope's
- * leakage near zero frequency is part of the floor, not of the peak. With z = P_max/μ over M
- * searched frequencies the false-alarm probability is 1 − (1 − e^{−z})^M; a fringe is significant
- * when it is below 0.001. After a fit the power tested is the one at the fitted frequency
+ * with mean μ (Schuster 1898; Scargle 1982, ApJ 263:835, §III); μ is estimated as the mean of
+ * the m ordinates within ±32 bins (the 5 nearest left out, lines above 10× their median dropped),
+ * so a smooth envelope's leakage near zero frequency is part of the floor, not of the peak.
+ * z = P/μ̂ then follows F(2, 2m): P(z > t) = (1 + t/m)^(−m); over M searched frequencies the
+ * false-alarm probability is 1 − (1 − (1 + z/m)^(−m))^M; a fringe is significant below 0.001. After a fit the power tested is the one at the fitted frequency
  * (±1 bin), with the same M since the fit chose its frequency; the strongest local maximum of the
  * periodogram is reported beside it. Needs about five periods across the profile.
  * Aliasing: a fitted fringe period λL/d below two sample spacings lies above the Nyquist
@@ -45,7 +45,7 @@ export interface FringeDetection {
 }
 
 const SMALLEST_K = 3;
-const FLOOR_HALF_WIDTH = 12;
+const FLOOR_HALF_WIDTH = 32;
 const FLOOR_GAP = 2;
 
 /**
@@ -64,33 +64,39 @@ export function detectFringes(x: Float64Array, y: Float64Array, fittedPeriod?: n
   if (!(spacing > 0)) return undefined;
   const span = Math.round((x[n - 1] - x[0]) / spacing) + 1;
   const kMax = Math.floor(span / 2);
-  if (kMax <= SMALLEST_K + 2 * FLOOR_HALF_WIDTH) return undefined;
+  if (kMax <= SMALLEST_K + 24) return undefined;
   const df = 1 / (span * spacing);
   const power = periodogram(x, y, df, kMax);
-  // Local floor: median of the neighbours (gap left out) / ln 2.
-  const floorAt = (k: number): number => {
+  // Local floor: mean of the neighbours (gap left out; lines above 10× their median dropped).
+  const floorAt = (k: number): { mean: number; count: number } => {
     const values: number[] = [];
     for (let j = Math.max(1, k - FLOOR_HALF_WIDTH); j <= Math.min(kMax, k + FLOOR_HALF_WIDTH); j++) {
       if (Math.abs(j - k) > FLOOR_GAP) values.push(power[j]);
     }
-    return median(Float64Array.from(values)) / Math.LN2;
+    const cut = 10 * median(Float64Array.from(values));
+    let sum = 0, count = 0;
+    for (const v of values) if (v <= cut) { sum += v; count++; }
+    return { mean: sum / count, count };
   };
+  // P/floor for white noise: F(2, 2m) with m floor bins, P(> z) = (1 + z/m)^(−m).
+  const tail = (z: number, m: number): number => Math.exp(-m * Math.log1p(z / m));
   // Strongest local maximum (a spectral line, not the slope of an envelope's low-frequency power).
-  let best = SMALLEST_K, bestRatio = -Infinity;
+  let best = SMALLEST_K, bestRatio = -Infinity, bestCount = 1;
   for (let k = SMALLEST_K; k <= kMax; k++) {
     if (power[k] < power[k - 1] || (k < kMax && power[k] < power[k + 1])) continue;
-    const ratio = power[k] / floorAt(k);
-    if (ratio > bestRatio) { bestRatio = ratio; best = k; }
+    const floor = floorAt(k);
+    const ratio = power[k] / floor.mean;
+    if (ratio > bestRatio) { bestRatio = ratio; best = k; bestCount = floor.count; }
   }
   const searched = kMax - SMALLEST_K + 1;
-  const falseAlarmOf = (z: number): number => (Number.isFinite(z) && z > 0 ? -Math.expm1(searched * Math.log1p(-Math.exp(-z))) : 1);
+  const falseAlarmOf = (z: number, m: number): number => (Number.isFinite(z) && z > 0 ? -Math.expm1(searched * Math.log1p(-tail(z, m))) : 1);
   const detection: FringeDetection = {
     test: "periodogram-peak",
     significant: false,
     peakPeriod: 1 / (best * df),
     peakPeriodSamples: span / best,
     powerRatio: bestRatio,
-    falseAlarm: falseAlarmOf(bestRatio),
+    falseAlarm: falseAlarmOf(bestRatio, bestCount),
     searched,
     spacing,
   };
@@ -102,9 +108,10 @@ export function detectFringes(x: Float64Array, y: Float64Array, fittedPeriod?: n
     if (k >= 1 && k <= kMax) {
       let peak = 0;
       for (let j = Math.max(1, k - 1); j <= Math.min(kMax, k + 1); j++) peak = Math.max(peak, power[j]);
-      detection.fittedPowerRatio = peak / floorAt(k);
-      // The fit chose its frequency among all of them: the same look-elsewhere factor M applies.
-      detection.fittedFalseAlarm = falseAlarmOf(detection.fittedPowerRatio);
+      const floor = floorAt(k);
+      detection.fittedPowerRatio = peak / floor.mean;
+      // The fit chose its frequency among all of them (and the best of 3 bins here): M × 3 trials.
+      detection.fittedFalseAlarm = Math.min(1, 3 * falseAlarmOf(detection.fittedPowerRatio, floor.count));
       detection.significant = detection.fittedFalseAlarm < FRINGE_FALSE_ALARM;
     }
   }
