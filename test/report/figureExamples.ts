@@ -14,7 +14,8 @@ import type { ProfileCurve } from "../../src/report/figures/profileLikelihoodFig
 
 /** B1-like truth (shared/bench/PROBLEMS.md), on a shorter 1024-pixel line with 11 µm pitch. */
 export const TWO_SLIT_TRUTH = {
-  amplitude: 20000, background: 150, center: 0.37e-3, separation: 0.5e-3, width: 0.1e-3,
+  amplitude: 40000, // coherent peak (mean level 20000 as in the snapshots)
+  background: 150, center: 0.37e-3, separation: 0.5e-3, width: 0.1e-3,
   visibility: 0.85, phase: 0.3, wavelength: 632.8e-9, distance: 1,
 };
 
