@@ -26,7 +26,9 @@ export interface FringeDetection {
    * when there is one inside the searched band, else the strongest peak.
    */
   significant: boolean;
-  /** Period of the strongest peak (m) and in sample spacings. */
+  /** Whether every frequency was searched (false: the fitted fringe was significant on its own). */
+  fullSearch: boolean;
+  /** Period of the strongest peak (m) and in sample spacings (the fitted one when fullSearch is false). */
   peakPeriod: number;
   peakPeriodSamples: number;
   /** Peak power over the local noise floor (dimensionless) and its false-alarm probability. */
@@ -66,7 +68,11 @@ export function detectFringes(x: Float64Array, y: Float64Array, fittedPeriod?: n
   const kMax = Math.floor(span / 2);
   if (kMax <= SMALLEST_K + 24) return undefined;
   const df = 1 / (span * spacing);
-  const power = periodogram(x, y, df, kMax);
+  // Ordinates are computed where needed: around the fitted frequency first (cheap, O(65 n)); the
+  // full search over all frequencies only when there is no fitted one or it is not significant.
+  const power = new Float64Array(kMax + 1).fill(NaN);
+  const mean = meanOf(y);
+  const fill = (from: number, to: number): void => periodogramRange(x, y, mean, df, Math.max(1, from), Math.min(kMax, to), power);
   // Local floor: mean of the neighbours (gap left out; lines above 10× their median dropped).
   const floorAt = (k: number): { mean: number; count: number } => {
     const values: number[] = [];
@@ -80,6 +86,33 @@ export function detectFringes(x: Float64Array, y: Float64Array, fittedPeriod?: n
   };
   // P/floor for white noise: F(2, 2m) with m floor bins, P(> z) = (1 + z/m)^(−m).
   const tail = (z: number, m: number): number => Math.exp(-m * Math.log1p(z / m));
+  const searched = kMax - SMALLEST_K + 1;
+  const falseAlarmOf = (z: number, m: number): number => (Number.isFinite(z) && z > 0 ? -Math.expm1(searched * Math.log1p(-tail(z, m))) : 1);
+  const fitted: Partial<FringeDetection> = {};
+  let fittedK = -1;
+  if (fittedPeriod !== undefined && fittedPeriod > 0 && Number.isFinite(fittedPeriod)) {
+    fitted.fittedPeriod = fittedPeriod;
+    fitted.fittedPeriodSamples = fittedPeriod / spacing;
+    const k = Math.round(1 / (fittedPeriod * df));
+    if (k >= 1 && k <= kMax) {
+      fittedK = k;
+      fill(k - FLOOR_HALF_WIDTH - 1, k + FLOOR_HALF_WIDTH + 1);
+      let peak = 0;
+      for (let j = Math.max(1, k - 1); j <= Math.min(kMax, k + 1); j++) peak = Math.max(peak, power[j]);
+      const floor = floorAt(k);
+      fitted.fittedPowerRatio = peak / floor.mean;
+      // The fit chose its frequency among all of them (and the best of 3 bins here): M × 3 trials.
+      fitted.fittedFalseAlarm = Math.min(1, 3 * falseAlarmOf(fitted.fittedPowerRatio, floor.count));
+      if (fitted.fittedFalseAlarm < FRINGE_FALSE_ALARM) {
+        return {
+          test: "periodogram-peak", significant: true, fullSearch: false,
+          peakPeriod: 1 / (k * df), peakPeriodSamples: span / k, powerRatio: fitted.fittedPowerRatio, falseAlarm: fitted.fittedFalseAlarm,
+          searched, spacing, ...fitted,
+        };
+      }
+    }
+  }
+  fill(1, kMax);
   // Strongest local maximum (a spectral line, not the slope of an envelope's low-frequency power).
   let best = SMALLEST_K, bestRatio = -Infinity, bestCount = 1;
   for (let k = SMALLEST_K; k <= kMax; k++) {
@@ -88,58 +121,48 @@ export function detectFringes(x: Float64Array, y: Float64Array, fittedPeriod?: n
     const ratio = power[k] / floor.mean;
     if (ratio > bestRatio) { bestRatio = ratio; best = k; bestCount = floor.count; }
   }
-  const searched = kMax - SMALLEST_K + 1;
-  const falseAlarmOf = (z: number, m: number): number => (Number.isFinite(z) && z > 0 ? -Math.expm1(searched * Math.log1p(-tail(z, m))) : 1);
+  const falseAlarm = falseAlarmOf(bestRatio, bestCount);
   const detection: FringeDetection = {
     test: "periodogram-peak",
-    significant: false,
+    // With a fitted frequency in the band, the verdict is about it; else about the strongest peak.
+    significant: fittedK > 0 ? false : falseAlarm < FRINGE_FALSE_ALARM,
+    fullSearch: true,
     peakPeriod: 1 / (best * df),
     peakPeriodSamples: span / best,
     powerRatio: bestRatio,
-    falseAlarm: falseAlarmOf(bestRatio, bestCount),
+    falseAlarm,
     searched,
     spacing,
+    ...fitted,
   };
-  detection.significant = detection.falseAlarm < FRINGE_FALSE_ALARM;
-  if (fittedPeriod !== undefined && fittedPeriod > 0 && Number.isFinite(fittedPeriod)) {
-    detection.fittedPeriod = fittedPeriod;
-    detection.fittedPeriodSamples = fittedPeriod / spacing;
-    const k = Math.round(1 / (fittedPeriod * df));
-    if (k >= 1 && k <= kMax) {
-      let peak = 0;
-      for (let j = Math.max(1, k - 1); j <= Math.min(kMax, k + 1); j++) peak = Math.max(peak, power[j]);
-      const floor = floorAt(k);
-      detection.fittedPowerRatio = peak / floor.mean;
-      // The fit chose its frequency among all of them (and the best of 3 bins here): M × 3 trials.
-      detection.fittedFalseAlarm = Math.min(1, 3 * falseAlarmOf(detection.fittedPowerRatio, floor.count));
-      detection.significant = detection.fittedFalseAlarm < FRINGE_FALSE_ALARM;
-    }
-  }
   return detection;
 }
 
-/** P(f_k) for k = 0 … kMax by phasor recurrence (no trigonometry inside the loop). */
-function periodogram(x: Float64Array, y: Float64Array, df: number, kMax: number): Float64Array {
-  const n = x.length;
-  let mean = 0;
-  for (let i = 0; i < n; i++) mean += y[i];
-  mean /= n;
-  const re = new Float64Array(kMax + 1), im = new Float64Array(kMax + 1);
+/** Mean of the values. */
+function meanOf(y: Float64Array): number {
+  let sum = 0;
+  for (let i = 0; i < y.length; i++) sum += y[i];
+  return sum / y.length;
+}
+
+/** P(f_k) = |Σ (y_i − ȳ) e^{−2πi k df (x_i − x_0)}|²/n for k = from … to, by phasor recurrence. */
+function periodogramRange(x: Float64Array, y: Float64Array, mean: number, df: number, from: number, to: number, power: Float64Array): void {
+  const n = x.length, count = to - from + 1;
+  if (count <= 0) return;
+  const re = new Float64Array(count), im = new Float64Array(count);
   for (let i = 0; i < n; i++) {
     const v = y[i] - mean;
-    const angle = -2 * Math.PI * df * (x[i] - x[0]);
-    const stepRe = Math.cos(angle), stepIm = Math.sin(angle);
-    let pr = v, pi = 0;
-    for (let k = 0; k <= kMax; k++) {
-      re[k] += pr; im[k] += pi;
+    const step = -2 * Math.PI * df * (x[i] - x[0]);
+    const stepRe = Math.cos(step), stepIm = Math.sin(step);
+    let pr = v * Math.cos(step * from), pi = v * Math.sin(step * from);
+    for (let t = 0; t < count; t++) {
+      re[t] += pr; im[t] += pi;
       const nr = pr * stepRe - pi * stepIm;
       pi = pr * stepIm + pi * stepRe;
       pr = nr;
     }
   }
-  const power = new Float64Array(kMax + 1);
-  for (let k = 0; k <= kMax; k++) power[k] = (re[k] * re[k] + im[k] * im[k]) / n;
-  return power;
+  for (let t = 0; t < count; t++) power[from + t] = (re[t] * re[t] + im[t] * im[t]) / n;
 }
 
 function median(values: Float64Array): number {
