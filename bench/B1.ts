@@ -15,13 +15,15 @@ import { getModel, pixelPositions, simulateProfile, type SimulatedProfile } from
 export const PYTHON = "/usr/bin/python3";
 const SCRIPT = join(dirname(fileURLToPath(import.meta.url)), "reference", "two_slit_scipy.py");
 
-/** B1 truth (SI). */
+// PROBLEMS.md writes B1 as background + A·sinc²·(1 + V cos) (A the mean level); fringekit's
+// amplitude is the coherent peak 2A, so the values here are doubled and halved for SciPy.
+/** B1 truth (SI; amplitude = coherent peak, twice the problem's A). */
 export const B1_TRUTH = {
-  amplitude: 20000, background: 150, center: 0.37e-3, separation: 0.5e-3, width: 0.1e-3,
+  amplitude: 40000, background: 150, center: 0.37e-3, separation: 0.5e-3, width: 0.1e-3,
   visibility: 0.85, phase: 0.3, wavelength: 632.8e-9, distance: 1, pixelWidth: 5.5e-6,
 } as const;
 /** B1 start (SI). */
-export const B1_START = { amplitude: 18000, background: 100, center: 0.3e-3, separation: 0.497e-3, width: 0.11e-3, visibility: 0.7, phase: 0 };
+export const B1_START = { amplitude: 36000, background: 100, center: 0.3e-3, separation: 0.497e-3, width: 0.11e-3, visibility: 0.7, phase: 0 };
 export const B1_FIX = { wavelength: 632.8e-9, distance: 1, pixelWidth: 5.5e-6 };
 
 /** The B1 profile: 4096 pixels of 5.5 µm, Poisson counts from a seeded stream. */
@@ -52,10 +54,15 @@ export function scipyAvailable(): boolean {
 /** Runs the SciPy reference on a profile; `repeats` timed fits after one warm-up. */
 export function runScipy(profile: SimulatedProfile, repeats = 10, variant: "analytic" | "default" = "analytic"): ScipyOutcome {
   const sigma = Array.from(profile.y, (v) => Math.sqrt(Math.max(v, 1)));
-  const job = JSON.stringify({ x: Array.from(profile.x), y: Array.from(profile.y), sigma, start: B1_START, fixed: B1_FIX, repeats, variant });
+  const start = { ...B1_START, amplitude: B1_START.amplitude / 2 }; // the problem's A (mean level)
+  const job = JSON.stringify({ x: Array.from(profile.x), y: Array.from(profile.y), sigma, start, fixed: B1_FIX, repeats, variant });
   const run = spawnSync(PYTHON, [SCRIPT], { input: job, encoding: "utf8", maxBuffer: 1 << 26 });
   if (run.status !== 0) throw new Error(`SciPy reference failed: ${run.stderr}`);
-  return JSON.parse(run.stdout) as ScipyOutcome;
+  const outcome = JSON.parse(run.stdout) as ScipyOutcome;
+  // back to fringekit's amplitude (coherent peak = 2A)
+  outcome.values["amplitude"] = 2 * outcome.values["amplitude"]!;
+  outcome.stderr["amplitude"] = 2 * outcome.stderr["amplitude"]!;
+  return outcome;
 }
 
 function median(values: number[]): number {

@@ -13,6 +13,8 @@ export interface FitJson {
   params: Record<string, { value: number; stderr: number | null; unit: string; fixed: boolean }>;
   stats: { n: number; dof: number; chi2: number; reducedChi2: number; logLikelihood: number; aic: number; aicc: number; bic: number };
   warnings: { code: string; message: string; parameter?: string }[];
+  /** The goodness-of-fit test (fit/goodness): verdict, χ²/ν, p-value (null when not tested), thresholds, fringe detection. */
+  goodness: Record<string, unknown> | null;
   provenance: Provenance | null;
 }
 
@@ -34,6 +36,7 @@ export function fitJson(result: FitResult, provenance: Provenance | undefined, d
     params,
     stats: { n: s.n, dof: s.dof, chi2: s.chi2, reducedChi2: s.reducedChi2, logLikelihood: s.logLikelihood, aic: s.aic, aicc: s.aicc, bic: s.bic },
     warnings: [...dataWarnings.map((message) => ({ code: "data", message })), ...assumed.map((a) => ({ code: a.code, message: a.message, parameter: a.parameter })), ...result.warnings.map((w) => ({ ...w }))],
+    goodness: result.goodness ? JSON.parse(JSON.stringify(result.goodness, (_key, value) => (typeof value === "number" && !Number.isFinite(value) ? null : value))) as Record<string, unknown> : null,
     provenance: provenance ?? null,
   };
 }

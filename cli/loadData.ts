@@ -11,6 +11,7 @@ import { UsageError } from "./usageError.js";
 export const DATA_OPTIONS: Record<string, OptionSpec> = {
   "pixel-pitch": { kind: "value", unitWord: true },
   "mask-saturated": { kind: "flag" },
+  "keep-saturated": { kind: "flag" },
   x: { kind: "value" },
   y: { kind: "value" },
   sigma: { kind: "value" },
@@ -35,7 +36,10 @@ export function profileOptions(args: ParsedArgs, source: string): ProfileOptions
     if (!(value > 0)) throw new UsageError(`invalid --pixel-pitch: "${pitch}" (a positive length, e.g. 5.5 um)`);
     options.pixelPitch = value;
   }
-  if (args.flags.has("mask-saturated")) options.maskSaturated = true;
+  // Saturated samples are masked by default (tables and frames); --mask-saturated stays accepted.
+  if (args.flags.has("keep-saturated") && args.flags.has("mask-saturated")) throw new UsageError("--keep-saturated and --mask-saturated contradict each other; give one");
+  if (args.flags.has("keep-saturated")) options.maskSaturated = false;
+  else if (args.flags.has("mask-saturated")) options.maskSaturated = true;
   const x = args.values.get("x"), y = args.values.get("y"), sigma = args.values.get("sigma");
   if (x !== undefined) options.x = x;
   if (y !== undefined) options.y = y;

@@ -62,12 +62,13 @@ function toCodes(counts: ArrayLike<number>, rng: Random, darkOffset: number, rea
 const lambda0 = 680e-9; // centre wavelength of source B (m)
 const pitch = 5.5e-6; // camera pixel pitch (m)
 
+// Amplitudes are coherent peaks above background (every model's meaning of amplitude).
 // 1. Camera line through slit pair A, unfiltered source (bandwidth visible as fringe fading).
 const lineA = {
   file: "line-pair-A.csv",
   model: "two-slit-broadband",
   truth: {
-    amplitude: 1800, center: 0.21e-3, separation: 0.6e-3, width: 0.06e-3, visibility: 0.88, phase: 0.4,
+    amplitude: 3600, center: 0.21e-3, separation: 0.6e-3, width: 0.06e-3, visibility: 0.88, phase: 0.4,
     wavelength: lambda0, bandwidth: 30e-9, distance: 0.75, background: 95, backgroundSlope: 0, pixelWidth: pitch, blur: 0,
   },
   pixels: 2048,
@@ -92,7 +93,7 @@ const scan = {
   separations: [0.25e-3, 0.45e-3, 0.65e-3, 0.85e-3, 1.05e-3, 1.25e-3, 1.45e-3],
   width: 0.05e-3,
   distance: 0.75,
-  amplitude: 1500,
+  amplitude: 3000,
   background: 60,
   pixels: 1024,
   seedBase: 200,
@@ -134,7 +135,7 @@ const frame = {
   darkOffset: 64,
   readNoise: 3,
   truth: {
-    amplitude: 2400, center: 0.1e-3, separation: 0.5e-3, width: 0.07e-3, visibility: 0.9, phase: 1.1,
+    amplitude: 4800, center: 0.1e-3, separation: 0.5e-3, width: 0.07e-3, visibility: 0.9, phase: 1.1,
     wavelength: lambda0, distance: 0.6, background: 40, pixelWidth: pitch,
   },
   hotPixels: [] as { column: number; row: number; value: number }[],
@@ -194,7 +195,8 @@ const nearField = {
   file: "line-nearfield.csv",
   model: "two-slit-fresnel",
   truth: {
-    amplitude: 800, center: -0.05e-3, separation: 1.2e-3, width: 0.5e-3, slits: 2,
+    // amplitude = far-field coherent peak; illuminating intensity 800 counts = amplitude · λL/(N a)²
+    amplitude: (800 * (2 * 0.5e-3) ** 2) / (lambda0 * 0.12), center: -0.05e-3, separation: 1.2e-3, width: 0.5e-3, slits: 2,
     wavelength: lambda0, distance: 0.12, background: 50, backgroundSlope: 0, pixelWidth: pitch, blur: 0,
   },
   pixels: 1024,

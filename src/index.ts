@@ -1,6 +1,6 @@
 // Public API of fringekit: re-exports only.
 export * from "./errors.js";
-export type { Profile, Provenance } from "./profile.js";
+export type { DataWarning, Profile, Provenance } from "./profile.js";
 export type { Model, ParameterSpec } from "./physics/model.js";
 export * from "./fit/index.js";
 export * from "./report/index.js";

@@ -15,6 +15,12 @@ export interface Provenance {
   notes: string[];
 }
 
+/** A coded warning met while reading the data (e.g. "saturated-masked"); every fit of the profile repeats it. */
+export interface DataWarning {
+  code: string;
+  message: string;
+}
+
 export interface Profile {
   /** Detector positions (m), strictly increasing. */
   x: Float64Array;
@@ -29,4 +35,6 @@ export interface Profile {
   /** True when y are integer detector counts (enables the Poisson noise model by default). */
   counts: boolean;
   provenance?: Provenance;
+  /** Coded warnings from reading the data that every fit result carries (e.g. saturated samples masked). */
+  warnings?: DataWarning[];
 }

@@ -1,6 +1,7 @@
 /** `fringekit compare FILE --models A,B,... [fit settings] [--json]`. */
 import { compareFits, comparisonDocument, comparisonJson, comparisonTable, fitProfile, getModel, stringifyResults, tableToText, type FitResult } from "../../src/index.js";
-import { assumedDefaults, assumedDefaultsNote, fitSettings, notConvergedSummary, type AssumedDefault } from "../fitSettings.js";
+import { DOUBTFUL_EXIT, doubtfulAdvice, doubtfulSummary } from "../doubtful.js";
+import { fitSettings, notConvergedSummary } from "../fitSettings.js";
 import { writeOutputFile } from "../files.js";
 import { loadData } from "../loadData.js";
 import { parseArgs } from "../parseArgs.js";
@@ -18,7 +19,6 @@ export function compareCommand(words: readonly string[]): CommandOutput {
   const loaded = loadData(path, args);
   const fits: FitResult[] = [];
   const fitOptions: Record<string, unknown>[] = [];
-  const assumed: AssumedDefault[] = [];
   for (const id of ids) {
     const model = getModel(id);
     // --set/--fix name parameters of any of the models; each model takes the ones it has.
@@ -26,9 +26,11 @@ export function compareCommand(words: readonly string[]): CommandOutput {
     const settings = fitSettings(model, own(args.lists.get("set") ?? []), own(args.lists.get("fix") ?? []), args.values.get("noise"), args.values.get("max-evaluations"));
     fits.push(fitProfile(loaded.profile, model, settings));
     fitOptions.push({ ...settings });
-    assumed.push(...assumedDefaults(model, settings));
   }
-  const notes = [...loaded.warnings, ...assumedDefaultsNote(assumed)];
+  // Default geometry and saturation are warnings of each result; the data's other notes stay here.
+  const carried = new Set((loaded.profile.warnings ?? []).map((w) => w.message));
+  const geometry = [...new Set(fits.flatMap((fit) => fit.warnings.filter((w) => w.code === "default-geometry" || carried.has(w.message)).map((w) => w.message)))];
+  const notes = [...loaded.warnings.filter((w) => !carried.has(w)), ...geometry];
   const stuck = fits.map((fit, i) => ({ fit, id: ids[i]! })).filter(({ fit }) => !fit.converged);
   // compareFits ranks converged fits only; with none there is nothing to rank, but the fits are still reported.
   const comparison = stuck.length < fits.length ? compareFits(fits.map((fit, i) => ({ fit, label: ids[i]!, profile: loaded.profile })), { profile: loaded.profile }) : undefined;
@@ -36,12 +38,17 @@ export function compareCommand(words: readonly string[]): CommandOutput {
   const text = args.flags.has("json")
     ? `${JSON.stringify(comparison ? comparisonJson(comparison) : { ranking: [], preferred: null, verdict }, null, 2)}\n`
     : comparison
-      ? `${tableToText(comparisonTable(comparison, { verdict, notes }))}\n`
+      ? `${tableToText(comparisonTable(comparison, { verdict, notes, fits: fits.map((result, i) => ({ label: ids[i]!, result })) }))}\n`
       : `${[verdict, ...notes].join("\n")}\n`;
   const out = args.values.get("out");
   // A .json output is the versioned results file that `fringekit replay` re-runs.
   const document = (): string => stringifyResults(comparisonDocument(loaded.profile, fits.map((result, i) => ({ label: ids[i]!, result, fitOptions: fitOptions[i]! })), { verdict }));
   if (out !== undefined) writeOutputFile(out, out.endsWith(".json") ? document() : text, [path]);
-  if (stuck.length === 0) return { stdout: text, exitCode: 0 };
+  if (stuck.length === 0) {
+    const doubtful = doubtfulSummary(fits.map((fit, i) => ({ label: ids[i]!, fit })));
+    if (doubtful === "") return { stdout: text, exitCode: 0 };
+    const accepted = args.flags.has("accept-doubtful");
+    return { stdout: text, exitCode: accepted ? 0 : DOUBTFUL_EXIT, error: `${path}: every fit converged, but ${doubtful}; ${doubtfulAdvice(accepted)}` };
+  }
   return { stdout: text, exitCode: 1, error: `${path}: not every fit converged (${notConvergedSummary(stuck)}); the result was still written` };
 }

@@ -2,7 +2,8 @@
 import { checkCountsForPoisson, fitDocument, fitFigure, fitProfile, fitTable, getModel, stringifyResults, tableToText, type FitResult, type LoadedProfile } from "../../src/index.js";
 import type { CommandFitOptions } from "../engine.js";
 import { fitJson } from "../fitJson.js";
-import { assumedDefaults, assumedDefaultsNote, fitSettings, notConvergedText, type AssumedDefault } from "../fitSettings.js";
+import { DOUBTFUL_EXIT, doubtfulAdvice, doubtfulSummary } from "../doubtful.js";
+import { assumedDefaults, fitSettings, notConvergedText, type AssumedDefault } from "../fitSettings.js";
 import { checkOutputPath, writeOutputFile } from "../files.js";
 import { DATA_OPTIONS, loadData } from "../loadData.js";
 import { parseArgs, type ParsedArgs } from "../parseArgs.js";
@@ -18,6 +19,7 @@ export const FIT_OPTIONS = {
   "max-evaluations": { kind: "value" },
   json: { kind: "flag" },
   out: { kind: "value" },
+  "accept-doubtful": { kind: "flag" },
 } as const;
 
 /** Default model when --model is not given. */
@@ -45,8 +47,12 @@ export async function fitCommand(words: readonly string[]): Promise<CommandOutpu
   const out = args.values.get("out");
   if (out !== undefined) checkOutputPath(out, [path]);
   const { loaded, result, warnings, assumed, settings } = fitFile(path, args.values.get("model") ?? DEFAULT_MODEL, args);
-  const json = fitJson(result, loaded.profile.provenance, warnings, assumed);
-  const notes = [...warnings, ...assumedDefaultsNote(assumed)];
+  // Default geometry and saturation are warnings of the result itself now (codes default-geometry, saturated-masked).
+  void assumed;
+  const carried = new Set((loaded.profile.warnings ?? []).map((w) => w.message));
+  const dataOnly = warnings.filter((w) => !carried.has(w));
+  const json = fitJson(result, loaded.profile.provenance, dataOnly);
+  const notes = dataOnly;
   const text = args.flags.has("json") ? `${JSON.stringify(json, null, 2)}\n` : `${tableToText(fitTable(result, { source: loaded.profile.provenance?.source ?? path, notes }))}\n`;
   // A .json output is the versioned results file that `fringekit replay` re-runs; other names get the printed text.
   if (out !== undefined) writeOutputFile(out, out.endsWith(".json") ? stringifyResults(fitDocument(loaded.profile, { result, fitOptions: { ...settings } })) : text, [path]);
@@ -55,9 +61,11 @@ export async function fitCommand(words: readonly string[]): Promise<CommandOutpu
     const { exportFigure } = await import("../../kernel-ext/figures/exportFigure.js");
     await exportFigure(fitFigure(loaded.profile, result), figure);
   }
-  return {
-    stdout: text,
-    exitCode: result.converged ? 0 : 1,
-    ...(result.converged ? {} : { error: `${path}: the fit did not converge (${notConvergedText(result)}); the result was still written` }),
-  };
+  if (!result.converged) {
+    return { stdout: text, exitCode: 1, error: `${path}: the fit did not converge (${notConvergedText(result)}); the result was still written` };
+  }
+  const doubtful = doubtfulSummary([{ label: "", fit: result }]);
+  if (doubtful === "") return { stdout: text, exitCode: 0 };
+  const accepted = args.flags.has("accept-doubtful");
+  return { stdout: text, exitCode: accepted ? 0 : DOUBTFUL_EXIT, error: `${path}: converged, but ${doubtful}; ${doubtfulAdvice(accepted)}` };
 }

@@ -32,9 +32,16 @@ export function modelsCommand(words: readonly string[]): CommandOutput {
     for (const r of rows) lines.push(pad(r));
     lines.push("");
   }
+  lines.push(AMPLITUDE_NOTE);
   lines.push("Values are SI (m, rad, counts); give them with units on the command line, e.g. --set wavelength=632.8nm.");
   return { stdout: `${lines.join("\n")}\n`, exitCode: 0 };
 }
+
+/** What `amplitude` means, the same in every model. */
+export const AMPLITUDE_NOTE = "amplitude means the same in every model: the peak above background of the fully coherent pattern " +
+  "(visibility 1, narrow band, point source). Two-beam models: I = background + (amplitude/2)·envelope·(1 + V cos), so the " +
+  "observed peak is amplitude·(1 + V)/2; n-slit and single-slit: the central maximum; two-slit-fresnel: the far-field peak of " +
+  "the same slits (illuminating intensity = amplitude·λL/(N a)²), which the near-field pattern approaches as a²/(λL) → 0.";
 
 function bound(value: number): string {
   return value === Infinity ? "∞" : value === -Infinity ? "−∞" : String(value);

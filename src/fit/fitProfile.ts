@@ -5,6 +5,7 @@
 import type { Model } from "../physics/model.js";
 import type { Profile } from "../profile.js";
 import { autoStartCandidates, supportsAutoStart } from "./autoStart.js";
+import { addFitChecks } from "./fitChecks.js";
 import type { SolverOutcome } from "./leastSquares.js";
 import { prepareFit, solvePrepared, startVector, type PreparedFit } from "./preparedFit.js";
 import { STOP_REASONS } from "./status.js";
@@ -54,9 +55,10 @@ export function fitProfile(profile: Profile, model: Model, options: FitOptions =
     prep = { ...prep, noise: { ...prep.noise, sigma: prep.noise.sigma.map(() => sigma), sigmaSource: "given" } };
     const start: Record<string, number> = {};
     fitted.parameters.forEach((p) => { start[p.name] = p.value; });
-    return summarize(prep, bestOf(prep, [start]), warnings);
+    return addFitChecks(prep, summarize(prep, bestOf(prep, [start]), warnings), options);
   }
-  return summarize(prep, bestOf(prep, candidates), warnings);
+  // Checks after the fit (issue 12): data warnings, default geometry, fringe detection.
+  return addFitChecks(prep, summarize(prep, bestOf(prep, candidates), warnings), options);
 }
 
 /**

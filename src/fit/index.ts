@@ -11,3 +11,7 @@ export * from "./profileInterval.js";
 export * from "./propagate.js";
 export * from "./bootstrap.js";
 export * from "./fitJoint.js";
+export * from "./goodness.js";
+export * from "./fringeDetection.js";
+export * from "./fitChecks.js";
+export * from "./optionQuantities.js";

@@ -8,7 +8,8 @@ import type { Profile } from "../profile.js";
 import { leastSquares, type LeastSquaresProblem, type SolverOutcome } from "./leastSquares.js";
 import { noiseResiduals, resolveNoise, type NoiseSetup } from "./noise.js";
 import { expandParameters, expansionJacobian, makePlan, type ParameterPlan } from "./parameterPlan.js";
-import type { FitOptions } from "./types.js";
+import { resolveFitOptions } from "./optionQuantities.js";
+import type { FitOptions, ResolvedFitOptions } from "./types.js";
 
 /** A validated fit problem: the used points, the parameter plan and the noise settings. */
 export interface PreparedFit {
@@ -21,7 +22,8 @@ export interface PreparedFit {
   x: Float64Array;
   y: Float64Array;
   sigmaAbsolute: boolean;
-  options: FitOptions;
+  /** The options with every value in SI numbers (text with units parsed). */
+  options: ResolvedFitOptions;
 }
 
 /** Checks the profile and returns the indices of the points with mask = 1. */
@@ -43,10 +45,11 @@ export function usedPoints(profile: Profile): Int32Array {
 }
 
 /** Validates everything and builds the problem description (no fitting yet). */
-export function prepareFit(profile: Profile, model: Model, options: FitOptions = {}, guess: Record<string, number> = {}): PreparedFit {
+export function prepareFit(profile: Profile, model: Model, given: FitOptions = {}, guess: Record<string, number> = {}): PreparedFit {
   if (!model || typeof model.evaluate !== "function" || !Array.isArray(model.parameters)) {
     throw new InvalidArgumentError("model", model, "a Model (getModel(id) or formulaModel(expression))");
   }
+  const options = resolveFitOptions(model, given);
   const used = usedPoints(profile);
   const plan = makePlan(model, options, guess);
   if (used.length <= plan.free.length) {

@@ -6,10 +6,10 @@
 import { InvalidArgumentError } from "../errors.js";
 import type { Model } from "../physics/model.js";
 import type { Profile } from "../profile.js";
-import type { FitOptions, FitResult } from "./types.js";
+import type { FitOptions, FitResult, ResolvedFitOptions } from "./types.js";
 
 /** Fit options equivalent to the ones that produced `result`, with every free parameter started at its fitted value. */
-export function optionsFromResult(result: FitResult, model: Model, given?: FitOptions): FitOptions {
+export function optionsFromResult(result: FitResult, model: Model, given?: FitOptions): ResolvedFitOptions {
   const fix: Record<string, number> = {};
   const tie: Record<string, string> = {};
   const bounds: Record<string, [number, number]> = {};

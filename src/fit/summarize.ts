@@ -3,6 +3,7 @@
  * (Fisher information for Poisson), warnings, model values and Pearson residuals.
  */
 import { covarianceFromJacobian } from "./covariance.js";
+import { goodnessOfFit } from "./goodness.js";
 import type { SolverOutcome } from "./leastSquares.js";
 import { logLikelihood, noiseResiduals } from "./noise.js";
 import { expandParameters, expansionJacobian } from "./parameterPlan.js";
@@ -81,6 +82,8 @@ export function summarize(prep: PreparedFit, outcome: SolverOutcome, extraWarnin
     prep.used.forEach((i, k) => { if (Math.abs(y[k] - f[k]) / noise.sigma[k] > 5) flagged.push(i); });
     if (flagged.length > 0) warnings.push({ code: "outliers-flagged", message: `${flagged.length} point(s) deviate by more than 5σ and were down-weighted by the robust loss` });
   }
+  const goodness = goodnessOfFit(chi2, dof, ...noiseScaleKnown(prep));
+  if (goodness.verdict === "poor") warnings.push({ code: "poor-fit", message: goodness.summary });
   const ll = logLikelihood(noise, y, f, objective, chi2, prep.sigmaAbsolute);
   const k = q;
   return {
@@ -107,7 +110,22 @@ export function summarize(prep: PreparedFit, outcome: SolverOutcome, extraWarnin
     model: modelAll,
     residuals,
     flagged,
+    goodness,
   };
+}
+
+/**
+ * Whether the noise scale is known in absolute terms, so that χ² can be tested: Poisson counts,
+ * or a gaussian fit with σ from the data (σ column, or √counts) unless the caller declared σ
+ * relative (sigmaAbsolute: false). Second element: why not, for the report.
+ */
+function noiseScaleKnown(prep: PreparedFit): [boolean, string] {
+  const { noise } = prep;
+  if (noise.id === "poisson") return [true, ""];
+  if (noise.id === "robust") return [false, "the robust loss down-weights outliers, so χ² has no reference distribution"];
+  if (noise.sigmaSource === "unknown") return [prep.sigmaAbsolute, "the profile has no σ, so the noise scale is unknown (give a σ column or counts)"];
+  if (prep.options.sigmaAbsolute === false) return [false, "σ was declared relative (sigmaAbsolute: false)"];
+  return [true, ""];
 }
 
 /** Standard error of a tied parameter by the delta method through its tie expression. */

@@ -2,6 +2,10 @@
  * Result types shared by the fitter, comparison, reports, the command line and widgets.
  * A fit that fails is a FitResult with converged = false, never an exception.
  */
+import type { GoodnessOfFit } from "./goodness.js";
+
+/** A parameter value: a number in SI units, or text with a unit ("532 nm", "0.85 m", "2 mrad"). */
+export type QuantityInput = number | string;
 
 /** How the data's scatter is modelled. "auto" picks poisson for integer counts, else gaussian. */
 export type NoiseModelId = "gaussian" | "poisson" | "robust";
@@ -89,6 +93,8 @@ export interface FitResult {
   residuals: Float64Array;
   /** Indices flagged as outliers by the robust loss (empty otherwise). */
   flagged: number[];
+  /** Goodness-of-fit test (χ² against its distribution when the noise scale is known) and fringe detection; see fit/goodness. */
+  goodness: GoodnessOfFit;
 }
 
 /** Progress of a running fit, reported once per solver iteration. */
@@ -101,19 +107,23 @@ export interface FitProgress {
 
 /** Options of fitProfile (all optional; names are model parameter names). */
 export interface FitOptions {
-  /** Starting values (SI); parameters not given start from the automatic start or the model default. */
-  start?: Record<string, number>;
-  /** Parameters held fixed: name → value (SI), or names held at their start/default value. */
-  fix?: Record<string, number> | string[];
+  /** Starting values (SI numbers, or text with units such as "532 nm"); parameters not given start from the automatic start or the model default. */
+  start?: Record<string, QuantityInput>;
+  /** Parameters held fixed: name → value (SI number or text with a unit), or names held at their start/default value. */
+  fix?: Record<string, QuantityInput> | string[];
   /** Parameters that are fixedByDefault in the model but should be fitted. */
   free?: string[];
   /** Parameters tied to others: name → expression of other parameter names, e.g. { width: "separation/5" }. */
   tie?: Record<string, string>;
-  /** Bounds (SI) replacing the model's physical bounds: name → [lower, upper]. */
-  bounds?: Record<string, [number, number]>;
+  /** Bounds (SI numbers or text with units) replacing the model's physical bounds: name → [lower, upper]. */
+  bounds?: Record<string, [QuantityInput, QuantityInput]>;
   /** Noise model; "auto" (default) is poisson for integer counts, gaussian otherwise. */
   noise?: NoiseModelId | "auto";
-  /** Treat σ as absolute (covariance not scaled by the reduced χ²). Default false; Poisson is never scaled. */
+  /**
+   * Treat σ as absolute (covariance not scaled by the reduced χ²). Default false; Poisson is never scaled.
+   * The goodness-of-fit test takes a σ from the data (σ column, counts) as absolute unless this is
+   * set to false explicitly.
+   */
   sigmaAbsolute?: boolean;
   /** Robust loss scale in units of σ (soft-L1 loss; default 2). */
   robustScale?: number;
@@ -129,3 +139,10 @@ export interface FitOptions {
   /** Checked once per iteration; the fit returns with reason "cancelled" when aborted. */
   signal?: { readonly aborted: boolean };
 }
+
+/** FitOptions with every value in SI numbers (text with units parsed): what the fitter works with. */
+export type ResolvedFitOptions = Omit<FitOptions, "start" | "fix" | "bounds"> & {
+  start?: Record<string, number>;
+  fix?: Record<string, number> | string[];
+  bounds?: Record<string, [number, number]>;
+};

@@ -52,6 +52,8 @@ export interface LineProfile {
   tilt: number;
   notes: string[];
   warnings: string[];
+  /** Coded warnings every fit of this profile repeats (saturated-masked / saturated-kept). */
+  coded?: { code: string; message: string }[];
   /** Options used, for provenance. */
   options: Record<string, unknown>;
 }
@@ -111,14 +113,17 @@ export function frameToLine(stack: ImageStack, options: FrameOptions = {}): Line
   if (options.tilt === undefined || options.tilt === "auto") notes.push(`fringe tilt ${(tilt * 180 / Math.PI).toFixed(3)}° measured and undone`);
   // Integer codes carry at least the quantisation variance 1/12 code² (uniform rounding error).
   const line = averageRows(values, saturated, roi, tilt, options.maskSaturated !== false, 0, stack.integerCodes ? 1 / 12 : 0);
+  const coded: { code: string; message: string }[] = [];
   if (saturatedCount > 0) {
     const cols = flaggedRanges(line.saturatedFlag).slice(0, 3).map(([a, b]) => (a === b ? `${line.pixel[a]!.toFixed(0)}` : `${line.pixel[a]!.toFixed(0)}–${line.pixel[b]!.toFixed(0)}`)).join(", ");
-    warnings.push(options.maskSaturated === false
+    const message = options.maskSaturated === false
       ? `${saturatedCount} saturated pixels (code ${top}) at pixel ${cols}; not masked`
-      : `${saturatedCount} saturated pixels (code ${top}) masked: ${line.masked} profile samples at pixel ${cols}`);
+      : `${saturatedCount} saturated pixels (code ${top}) masked: ${line.masked} profile samples at pixel ${cols}`;
+    warnings.push(message);
+    coded.push({ code: options.maskSaturated === false ? "saturated-kept" : "saturated-masked", message });
   }
   const optionsUsed: Record<string, unknown> = { format: stack.format, roi, page: options.page ?? "mean", tilt, dark: options.dark !== undefined, flat: options.flat !== undefined, maskSaturated: options.maskSaturated !== false };
-  return { pixel: line.pixel, y: line.y, sigma: line.sigma, mask: line.mask, tilt, notes, warnings, options: optionsUsed };
+  return { pixel: line.pixel, y: line.y, sigma: line.sigma, mask: line.mask, tilt, notes, warnings, coded, options: optionsUsed };
 }
 
 /** Adds weight × the ROI of one page to `values` and flags pixels at the top code; returns how many were newly flagged. */

@@ -3,6 +3,7 @@
  */
 import { DataError, InvalidArgumentError } from "../errors.js";
 import type { Profile } from "../profile.js";
+import { checkPlausibleLength } from "../units/plausibility.js";
 import { isCountUnit, isIntensityUnit, isPixelUnit, parseColumnHeader, positionUnitFactor, type ColumnHeader } from "../units/index.js";
 import { checkPositions } from "./checkPositions.js";
 import { chooseColumns, isPositionName, type ColumnRef } from "./chooseColumns.js";
@@ -30,7 +31,11 @@ export interface TableOptions {
   xUnit?: string;
   /** Force a delimiter instead of detecting it. */
   delimiter?: Delimiter;
-  /** Mask samples sitting on a detector top code (255, 4095, 65535, ...). Default false: warn only. */
+  /**
+   * Mask samples sitting on a detector top code (255, 1023, 4095, 16383, 65535) when at least two
+   * samples share it. Default true, as for frames: a clipped sample carries no intensity
+   * information and biases the visibility low. false keeps them (with a "saturated-kept" warning).
+   */
   maskSaturated?: boolean;
   /** SHA-256 of the file bytes when already known (hex). */
   sha256?: string;
@@ -149,17 +154,24 @@ export function parseTable(text: string, options: TableOptions = {}): LoadedProf
     warnings.push(`column "${label(columns.y)}" is labelled ${yUnitText} but holds negative or non-integer values; the Poisson noise model does not apply`);
   }
   const mask = new Uint8Array(n).fill(1);
+  const coded: { code: string; message: string }[] = [];
   const top = findSaturationCode(y, 2);
   if (top !== undefined) {
     const flag = new Uint8Array(n);
     let count = 0;
     for (let i = 0; i < n; i++) if (y[i] === top) { flag[i] = 1; count++; }
     const where = flaggedRanges(flag).slice(0, 3).map(([a, b]) => formatRange(x[a]!, x[b]!)).join(", ");
-    if (options.maskSaturated) {
+    const ranges = flaggedRanges(flag).length;
+    const more = ranges > 3 ? ` and ${ranges - 3} more range${ranges - 3 === 1 ? "" : "s"}` : "";
+    if (options.maskSaturated !== false) {
       for (let i = 0; i < n; i++) if (flag[i] === 1) mask[i] = 0;
-      warnings.push(`${count} saturated samples (value ${top}) masked at x = ${where}`);
+      const message = `${count} saturated samples (at the detector top code ${top}) masked at x = ${where}${more}; keep them with the keep-saturated option`;
+      warnings.push(message);
+      coded.push({ code: "saturated-masked", message });
     } else {
-      warnings.push(`${count} samples sit at the detector top code ${top} (saturated?) at x = ${where}; use the mask-saturated option to exclude them`);
+      const message = `${count} samples sit at the detector top code ${top} (saturated) at x = ${where}${more} and were kept as asked; clipped samples bias the visibility low`;
+      warnings.push(message);
+      coded.push({ code: "saturated-kept", message });
     }
   }
   const profile: Profile = {
@@ -175,6 +187,7 @@ export function parseTable(text: string, options: TableOptions = {}): LoadedProf
       options: provenanceOptions(options, headers, columns, split.delimiter),
       notes: [...notes, ...warnings],
     },
+    ...(coded.length > 0 ? { warnings: coded } : {}),
   };
   return { profile, warnings };
 }
@@ -190,6 +203,7 @@ function positionScale(header: ColumnHeader, rawX: Float64Array, options: TableO
       throw new DataError(source, `the position column "${label}" holds pixel indices`, "give the pixel pitch (--pixel-pitch 5.5 um)");
     }
     if (!(options.pixelPitch > 0) || !Number.isFinite(options.pixelPitch)) throw new InvalidArgumentError("pixelPitch", options.pixelPitch, "a positive length in metres");
+    checkPlausibleLength("pixelPitch", options.pixelPitch, "pixelPitch");
     notes.push(`positions are pixel indices × pitch ${options.pixelPitch} m`);
     return options.pixelPitch;
   }
@@ -234,7 +248,7 @@ function provenanceOptions(options: TableOptions, headers: ColumnHeader[], colum
   };
   if (options.pixelPitch !== undefined) out["pixelPitch"] = options.pixelPitch;
   if (options.xUnit !== undefined) out["xUnit"] = options.xUnit;
-  if (options.maskSaturated !== undefined) out["maskSaturated"] = options.maskSaturated;
+  out["maskSaturated"] = options.maskSaturated !== false;
   return out;
 }
 

@@ -39,6 +39,8 @@ export function readOptionsFromRecord(record: Record<string, unknown>, source: s
   if (pitch !== undefined) options.pixelPitch = pitch;
   if (typeof record["xUnit"] === "string") options.xUnit = record["xUnit"];
   if (typeof record["maskSaturated"] === "boolean") options.maskSaturated = record["maskSaturated"];
+  // Tables recorded before saturated samples were masked by default kept them: replay them so.
+  else if (record["format"] === "table") options.maskSaturated = false;
   const delimiter = record["delimiter"];
   if (delimiter === "," || delimiter === ";" || delimiter === "whitespace") options.delimiter = delimiter;
   if (delimiter === "tab") options.delimiter = "\t";

@@ -10,6 +10,7 @@ import { readImage, sniffFormat } from "./readImage.js";
 import { readTable, type LoadedProfile, type TableOptions } from "./parseTable.js";
 import { isTiff } from "./readTiffDirectories.js";
 import { sha256Hex } from "./sha256.js";
+import { checkPlausibleLength } from "../units/plausibility.js";
 
 /** Options for readProfile: those of tables and of frames. */
 export type ProfileOptions = TableOptions & Omit<FrameOptions, "maskSaturated">;
@@ -52,6 +53,7 @@ export function readProfile(bytes: Uint8Array, options: ProfileOptions = {}): Lo
  */
 export function lineToProfile(line: LineProfile, pitch: number, source: string, sha256: string, fromCounts: boolean): LoadedProfile {
   if (!(pitch > 0) || !Number.isFinite(pitch)) throw new InvalidArgumentError("pixelPitch", pitch, "a positive length in metres");
+  checkPlausibleLength("pixelPitch", pitch, "pixelPitch");
   const x = new Float64Array(line.pixel.length);
   for (let i = 0; i < x.length; i++) x[i] = line.pixel[i]! * pitch;
   const profile: Profile = {
@@ -67,6 +69,7 @@ export function lineToProfile(line: LineProfile, pitch: number, source: string, 
       options: { ...line.options, pixelPitch: pitch },
       notes: [...line.notes, ...line.warnings],
     },
+    ...(line.coded && line.coded.length > 0 ? { warnings: line.coded.map((w) => ({ ...w })) } : {}),
   };
   return { profile, warnings: line.warnings };
 }

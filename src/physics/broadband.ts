@@ -58,7 +58,7 @@ export function twoSlitBroadbandPattern(options: { smallAngle?: boolean } = {}):
     const dPath = dGamma * k + dDamping * (-q * damping) * sigmaK; // ∂I/∂D
     const dS = dBeta * 0.5 * k * width + dPath * separation;
     const dU = dS * geo.dsdu;
-    g[0] = envelope * fringe;
+    g[0] = 0.5 * envelope * fringe;
     g[1] = -dU;
     g[2] = dPath * s;
     g[3] = dBeta * 0.5 * k * s;
@@ -73,10 +73,11 @@ export function twoSlitBroadbandPattern(options: { smallAngle?: boolean } = {}):
   };
   return {
     id: "two-slit-broadband",
-    description: "Two-slit pattern from a Gaussian spectrum of FWHM `bandwidth` (fringe contrast falls off with path difference)",
+    description: "Two-slit pattern from a spectrum Gaussian in wavenumber, FWHM `bandwidth` mapped to first order (fringe contrast falls off with path difference)",
     parameters: specs("amplitude", "center", "separation", "width", "visibility", "phase", "wavelength", "bandwidth", "distance"),
     prepare(p) {
-      amplitude = p[0]!; center = p[1]!; separation = p[2]!; width = p[3]!; visibility = p[4]!;
+      // amplitude (parameter) = peak of the fully coherent pattern: the two-beam sum uses half of it.
+      amplitude = 0.5 * p[0]!; center = p[1]!; separation = p[2]!; width = p[3]!; visibility = p[4]!;
       phase = p[5]!; wavelength = p[6]!; bandwidth = p[7]!; distance = p[8]!;
       k = (2 * Math.PI) / wavelength;
       dSigmaDBandwidth = ((2 * Math.PI) / (wavelength * wavelength)) * FWHM_TO_SIGMA;
@@ -142,7 +143,7 @@ export function twoSlitSpectrumPattern(spectrum: SpectrumTable, options: { small
     }
     if (!g) return amplitude * value;
     const dU = amplitude * gS * geo.dsdu;
-    g[0] = gA;
+    g[0] = 0.5 * gA;
     g[1] = -dU;
     g[2] = amplitude * gSep;
     g[3] = amplitude * gWidth;
@@ -157,7 +158,7 @@ export function twoSlitSpectrumPattern(spectrum: SpectrumTable, options: { small
     description: "Two-slit pattern summed over a tabulated source spectrum",
     parameters: specs("amplitude", "center", "separation", "width", "visibility", "phase", "distance"),
     prepare(p) {
-      amplitude = p[0]!; center = p[1]!; separation = p[2]!; width = p[3]!;
+      amplitude = 0.5 * p[0]!; center = p[1]!; separation = p[2]!; width = p[3]!; // parameter = coherent peak
       visibility = p[4]!; phase = p[5]!; distance = p[6]!;
     },
     value: (x) => evaluate(x, null),

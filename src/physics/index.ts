@@ -8,6 +8,7 @@ export * from "./twoSlit.js";
 export * from "./nSlit.js";
 export * from "./twoBeam.js";
 export * from "./broadband.js";
+export * from "./broadbandWavelength.js";
 export * from "./nearField.js";
 export * from "./coherence.js";
 export * from "./sourceModel.js";

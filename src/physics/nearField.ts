@@ -8,9 +8,11 @@
  *   u_j± = √(2/(λL)) (c_j ± a/2 − v),  c_j = (j − (N − 1)/2) d,  v = x − center,
  *   I(x) = amplitude · |U|² = amplitude · |Σ_j [E(u_j+) − E(u_j−)]|² / 2.
  *
- * `amplitude` is the illuminating intensity (the level inside a wide slit's geometric
- * shadow). As a²/(λL) → 0 this tends to the small-angle far-field pattern with peak
- * amplitude · (N a)² / (λL). Derivatives are analytic: dE/du = exp(iπu²/2).
+ * `amplitude` is, as in every model, the peak above background of the fully coherent pattern
+ * in the far field of the same slits: the illuminating intensity is amplitude · λL/(N a)²,
+ * so that as a²/(λL) → 0 the pattern tends to the small-angle far-field one with peak
+ * `amplitude`. In the near field the actual peak differs (a geometric shadow with Fresnel
+ * ripples, near the illuminating intensity). Derivatives are analytic: dE/du = exp(iπu²/2).
  * Cost: 2N Fresnel-integral evaluations per sample point, each accurate to ~1e-15.
  */
 import type { Model } from "./model.js";
@@ -26,7 +28,7 @@ import { specs } from "./specs.js";
  */
 export function nearFieldPattern(): PointPattern {
   const pair: FresnelPair = { c: 0, s: 0 };
-  let amplitude = 0, center = 0, separation = 0, width = 0, slits = 2, wavelength = 0, distance = 0, q = 0;
+  let amplitude = 0, center = 0, separation = 0, width = 0, slits = 2, wavelength = 0, distance = 0, q = 0, scale = 0;
   const evaluate = (x: number, g: Float64Array | null): number => {
     const v = x - center;
     let fr = 0, fi = 0; // F = Σ [E(u+) − E(u−)]
@@ -55,16 +57,17 @@ export function nearFieldPattern(): PointPattern {
     }
     const value = 0.5 * amplitude * (fr * fr + fi * fi);
     if (!g) return value;
+    // amplitude = peak · λL/(N a)²: ∂/∂a gains −2I/a, ∂/∂λ and ∂/∂L gain I/λ and I/L.
     // ∂I/∂p = amplitude · Re(conj(F) · ∂F/∂p)
     const dV = -q * amplitude * (fr * vr + fi * vi);
     const dLog = -0.5 * amplitude * (fr * ur + fi * ui); // ∂I/∂(ln λ) = ∂I/∂(ln L)
-    g[0] = 0.5 * (fr * fr + fi * fi);
+    g[0] = 0.5 * scale * (fr * fr + fi * fi);
     g[1] = -dV;
     g[2] = q * amplitude * (fr * dr + fi * di);
-    g[3] = q * amplitude * (fr * ar + fi * ai);
+    g[3] = q * amplitude * (fr * ar + fi * ai) - (width > 0 ? (2 * value) / width : 0);
     g[4] = 0;
-    g[5] = dLog / wavelength;
-    g[6] = dLog / distance;
+    g[5] = (dLog + value) / wavelength;
+    g[6] = (dLog + value) / distance;
     g[7] = dV;
     return value;
   };
@@ -73,9 +76,14 @@ export function nearFieldPattern(): PointPattern {
     description: "Near-field (Fresnel) pattern of N rectangular slits from Fresnel integrals",
     parameters: specs("amplitude", "center", "separation", "width", "slits", "wavelength", "distance"),
     prepare(p) {
-      amplitude = p[0]!; center = p[1]!; separation = p[2]!; width = p[3]!;
+      center = p[1]!; separation = p[2]!; width = p[3]!;
       slits = Math.max(1, Math.round(p[4]!)); wavelength = p[5]!; distance = p[6]!;
       q = Math.sqrt(2 / (wavelength * distance));
+      // The parameter is the peak of the same slits' far-field pattern; inside, the illuminating
+      // intensity = peak · λL/(N a)² (the far-field limit of this pattern has peak illum·(Na)²/(λL)).
+      const aperture = slits * width;
+      scale = aperture > 0 ? (wavelength * distance) / (aperture * aperture) : 0;
+      amplitude = p[0]! * scale;
     },
     value: (x) => evaluate(x, null),
     valueGrad: (x, g) => evaluate(x, g),

@@ -8,6 +8,7 @@ import { nSlitModel, singleSlitModel } from "./nSlit.js";
 import { twoBeamModel } from "./twoBeam.js";
 import { twoSlitBroadbandModel, twoSlitSpectrumModel, type SpectrumTable } from "./broadband.js";
 import { nearFieldModel } from "./nearField.js";
+import { twoSlitBroadbandWavelengthModel } from "./broadbandWavelength.js";
 import { coherenceDiscModel, coherenceGaussianModel } from "./coherence.js";
 import { twoSlitSourceModel } from "./sourceModel.js";
 
@@ -46,6 +47,7 @@ const ENTRIES: Record<string, Entry> = {
   "single-slit": { axis: "detector", create: (o) => singleSlitModel(o) },
   "two-beam": { axis: "detector", create: (o) => twoBeamModel(o) },
   "two-slit-broadband": { axis: "detector", create: (o) => twoSlitBroadbandModel(o) },
+  "two-slit-broadband-wavelength": { axis: "detector", create: (o) => twoSlitBroadbandWavelengthModel(o) },
   "two-slit-spectrum": {
     axis: "detector",
     create: (o) => {

@@ -14,7 +14,7 @@ export type SpecName = keyof typeof SPECS;
 
 const SPECS = {
   amplitude: { name: "amplitude", unit: "counts", default: 1000, lower: 0, upper: Infinity,
-    description: "Peak intensity of the pattern above background." },
+    description: "Peak above background of the fully coherent pattern (visibility 1, narrow band, point source; far-field peak for near-field models)." },
   center: { name: "center", unit: "m", default: 0, lower: -Infinity, upper: Infinity,
     description: "Detector position of the optical axis (pattern centre)." },
   separation: { name: "separation", unit: "m", default: 0.5e-3, lower: 0, upper: Infinity,

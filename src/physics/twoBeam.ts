@@ -2,7 +2,7 @@
  * Two-beam interference under a Gaussian envelope (e.g. two overlapping laser beams, or
  * slits lit by a Gaussian beam, seen on the detector):
  *
- *   I(x) = amplitude · exp(−2u²/w²) · [1 + V cos(2π d s / λ + φ)],  u = x − center,
+ *   I(x) = (amplitude/2) · exp(−2u²/w²) · [1 + V cos(2π d s / λ + φ)]   (amplitude = coherent peak),  u = x − center,
  *
  * s = sin θ as in two-slit, w = beamWaist (1/e² intensity radius on the detector).
  * V = 2√(I1 I2)/(I1 + I2)·|γ12| carries unequal intensities and partial coherence
@@ -28,7 +28,7 @@ export function twoBeamPattern(options: { smallAngle?: boolean } = {}): PointPat
     description: "Two-beam fringes under a Gaussian envelope: exp(−2u²/w²) × (1 + V cos)",
     parameters: specs("amplitude", "center", "separation", "beamWaist", "visibility", "phase", "wavelength", "distance"),
     prepare(p) {
-      amplitude = p[0]!; center = p[1]!; separation = p[2]!; waist = p[3]!;
+      amplitude = 0.5 * p[0]!; center = p[1]!; separation = p[2]!; waist = p[3]!; // parameter = coherent peak
       visibility = p[4]!; phase = p[5]!; wavelength = p[6]!; distance = p[7]!;
       k = (2 * Math.PI) / wavelength;
     },
@@ -48,7 +48,7 @@ export function twoBeamPattern(options: { smallAngle?: boolean } = {}): PointPat
       const value = amplitude * envelope * fringe;
       const dGamma = -amplitude * envelope * visibility * Math.sin(path + phase);
       const dU = value * ((-4 * u) / (waist * waist)) + dGamma * k * separation * geo.dsdu;
-      g[0] = envelope * fringe;
+      g[0] = 0.5 * envelope * fringe;
       g[1] = -dU;
       g[2] = dGamma * k * geo.s;
       g[3] = (value * 4 * u * u) / (waist * waist * waist);

@@ -1,13 +1,14 @@
 /**
  * Far-field (Fraunhofer) two-slit pattern with finite slit width and partial visibility.
  *
- *   I(x) = amplitude · sinc²(π a s / λ) · [1 + V cos(2π d s / λ + φ)],
+ *   I(x) = (amplitude/2) · sinc²(π a s / λ) · [1 + V cos(2π d s / λ + φ)],
  *   s = sin θ = (x − center) / √((x − center)² + L²)   (or (x − center)/L, small-angle option)
  *
  * Fraunhofer diffraction by two slits of width a at spacing d (Born & Wolf, Principles of
  * Optics, §8.5–8.6; Hecht, Optics, §10.2); V < 1 covers unequal beam intensities and
  * partial coherence (V = 2√(I1 I2)/(I1 + I2)·|γ12|, see coherence helpers).
- * Detector effects (pixel width, blur, background) are added by `detectorModel`.
+ * `amplitude` is the peak above background of the fully coherent pattern (V = 1), as in every
+ * model (see specs.ts). Detector effects (pixel width, blur, background) are added by `detectorModel`.
  */
 import type { Model } from "./model.js";
 import type { PointPattern } from "./pattern.js";
@@ -116,7 +117,7 @@ export function twoSlitPattern(options: { smallAngle?: boolean } = {}): PointPat
       const dU = dS * dsdus[t]!;
       const o = 9 * t;
       values[t] = A * envelope * fringe;
-      grads[o] = envelope * fringe;
+      grads[o] = 0.5 * envelope * fringe; // amplitude is the coherent peak: I uses amplitude/2
       grads[o + 1] = -dU;
       grads[o + 2] = dGamma * k * s;
       grads[o + 3] = dBeta * halfK * s;
@@ -132,7 +133,8 @@ export function twoSlitPattern(options: { smallAngle?: boolean } = {}): PointPat
     description: "Far-field two-slit pattern: sinc² envelope × (1 + V cos) fringes",
     parameters: specs("amplitude", "center", "separation", "width", "visibility", "phase", "wavelength", "distance"),
     prepare(p) {
-      amplitude = p[0]!; center = p[1]!; separation = p[2]!; width = p[3]!;
+      // `amplitude` (the parameter) is the peak of the fully coherent pattern (V = 1): 2 × this factor.
+      amplitude = 0.5 * p[0]!; center = p[1]!; separation = p[2]!; width = p[3]!;
       visibility = p[4]!; phase = p[5]!; wavelength = p[6]!; distance = p[7]!;
       k = (2 * Math.PI) / wavelength;
     },

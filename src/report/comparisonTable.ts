@@ -9,7 +9,7 @@ import { compareFits } from "../stats/compareFits.js";
 import type { ComparisonResult, Criterion } from "../stats/comparisonTypes.js";
 import type { NestedTestResult } from "../stats/nested.js";
 import { pText } from "../stats/residualDiagnostics.js";
-import { fixed, NOISE_WORDS } from "./fitTable.js";
+import { DOUBTFUL_CODES, fixed, NOISE_WORDS } from "./fitTable.js";
 import type { ReportTable, ReportTableRow } from "./table.js";
 
 /** One fit in a comparison, with the label it is shown under (user text, escaped on output). */
@@ -23,6 +23,8 @@ export interface ComparisonTableOptions {
   caption?: string;
   /** A verdict in plain words (e.g. compareFits(...).verdict), printed as a note. */
   verdict?: string;
+  /** The fits by label, for the goodness-of-fit column when the table is built from a compareFits result. */
+  fits?: readonly LabelledFit[];
   /** Nested-model tests (compareFits(...).tests), one note each with the statistics and p-values. */
   tests?: readonly NestedTestResult[];
   notes?: string[];
@@ -91,9 +93,16 @@ export function comparisonTable(fits: readonly LabelledFit[] | ComparisonResult,
   const comparison = Array.isArray(fits) ? undefined : (fits as ComparisonResult);
   const ranking = comparison ? comparisonRows(comparison) : rankFits(fits as readonly LabelledFit[]);
   const criterion = comparison?.criterion ?? "aic";
+  const byLabel = new Map((comparison ? options.fits ?? [] : (fits as readonly LabelledFit[])).map((f) => [f.label, f.result]));
+  const fitWord = (label: string): string => {
+    const g = byLabel.get(label)?.goodness;
+    if (!g) return "–";
+    return g.verdict === "poor" ? "POOR" : g.verdict === "not-tested" ? "not tested" : g.verdict;
+  };
   const rows: ReportTableRow[] = ranking.map((r) => ({
     cells: [
       r.converged ? r.label : `${r.label} (not converged)`,
+      fitWord(r.label),
       String(r.k),
       fixed(r.reducedChi2, 3),
       fixed(r.logLikelihood, 1),
@@ -109,13 +118,19 @@ export function comparisonTable(fits: readonly LabelledFit[] | ComparisonResult,
   const name = CRITERION_NAMES[criterion];
   const notes = [`${ranking.length} fits of the same ${n} points, noise model ${NOISE_WORDS[noise] ?? noise}; best ${name} first.`];
   if (ranking.some((r) => !r.converged)) notes.push("Fits that did not converge are listed last with weight 0.");
+  for (const r of ranking) {
+    const result = byLabel.get(r.label);
+    for (const w of result?.warnings ?? []) {
+      if (DOUBTFUL_CODES.includes(w.code)) notes.push(`${r.label}: ${w.message}; its AIC and weight rank a fit that is not credible.`);
+    }
+  }
   for (const t of options.tests ?? []) notes.push(testNote(t));
   if (options.verdict) notes.push(options.verdict);
   notes.push(...(options.notes ?? []));
   return {
     caption: options.caption ?? "Model comparison",
-    columns: ["Model", "k", "χ²/ν", "ln L", "AIC", "ΔAIC", criterion === "aic" ? "Akaike weight" : `${name} weight`, "BIC", "ΔBIC"],
-    align: ["l", "r", "r", "r", "r", "r", "r", "r", "r"],
+    columns: ["Model", "goodness of fit", "k", "χ²/ν", "ln L", "AIC", "ΔAIC", criterion === "aic" ? "Akaike weight" : `${name} weight`, "BIC", "ΔBIC"],
+    align: ["l", "l", "r", "r", "r", "r", "r", "r", "r", "r"],
     rows,
     notes,
   };

@@ -3,6 +3,8 @@
  * fixed/tied/at-bound marks, then the fit statistics and any warnings as notes.
  */
 import { InvalidArgumentError } from "../errors.js";
+import type { FringeDetection } from "../fit/fringeDetection.js";
+import type { GoodnessOfFit } from "../fit/goodness.js";
 import type { FitResult } from "../fit/types.js";
 import { formatParameter, type FormatOptions } from "./formatQuantity.js";
 import { parameterLabel, type ParameterLabel } from "./labels.js";
@@ -65,7 +67,15 @@ export function fitTable(result: FitResult, options: FitTableOptions = {}): Repo
   rows.push({ cells: [{ label: STAT_LABELS.lnL }, fixed(s.logLikelihood, 1)] });
   rows.push({ cells: ["AIC", fixed(s.aic, 1)] });
   rows.push({ cells: ["BIC", fixed(s.bic, 1)] });
-  rows.push({ cells: ["converged", result.converged ? `yes (${result.message})` : `NO: ${result.message}`] });
+  const goodness = result.goodness;
+  const doubtful = result.warnings.filter((w) => DOUBTFUL_CODES.includes(w.code));
+  // "converged" is never the only word on a fit that a check calls doubtful.
+  const convergedText = !result.converged ? `NO: ${result.message}` : doubtful.length > 0
+    ? `yes (${result.message}), BUT ${doubtful.map((w) => DOUBTFUL_WORDS[w.code]).join(" and ")}: see the warnings`
+    : `yes (${result.message})`;
+  rows.push({ cells: ["converged", convergedText] });
+  if (goodness) rows.push({ cells: ["goodness of fit", goodnessText(goodness)] });
+  if (goodness?.fringes) rows.push({ cells: ["fringe detected", fringeText(goodness.fringes)] });
 
   const notes = [
     "Uncertainties are standard uncertainties rounded to two significant digits (JCGM 100:2008, 7.2.6)" +
@@ -83,6 +93,32 @@ export function fitTable(result: FitResult, options: FitTableOptions = {}): Repo
     rows,
     notes,
   };
+}
+
+/** Warning codes that make a converged fit doubtful (the command exits with status 3 on them). */
+export const DOUBTFUL_CODES = ["poor-fit", "no-fringes", "fringe-aliased"];
+
+const DOUBTFUL_WORDS: Record<string, string> = {
+  "poor-fit": "POOR FIT (the model does not describe these data)",
+  "no-fringes": "NO SIGNIFICANT FRINGE",
+  "fringe-aliased": "FRINGE PERIOD BELOW TWO SAMPLES (aliased)",
+};
+
+/** The goodness-of-fit cell: verdict in capitals when poor, then the test's sentence. */
+export function goodnessText(g: GoodnessOfFit): string {
+  if (g.verdict === "poor") return `POOR: ${g.summary}`;
+  if (g.verdict === "not-tested") return g.summary.replace(/^goodness of fit /, "");
+  return `${g.verdict}: ${g.summary}`;
+}
+
+/** The fringe-detection cell: yes/NO with the power ratio and period in samples. */
+export function fringeText(d: FringeDetection): string {
+  const ratio = d.fittedPowerRatio ?? d.powerRatio;
+  const alarm = d.fittedFalseAlarm ?? d.falseAlarm;
+  const period = d.fittedPeriodSamples ?? d.peakPeriodSamples;
+  const head = d.significant ? "yes" : "NO";
+  const aliased = d.fittedPeriodSamples !== undefined && d.fittedPeriodSamples < 2 ? "; ALIASED (below 2 samples)" : "";
+  return `${head}: period ${period.toPrecision(3)} samples, power ${ratio.toPrecision(3)}× the noise floor, false-alarm probability ${alarm < 1e-300 ? "< 1e-300" : alarm.toPrecision(2)}${aliased}`;
 }
 
 /** `x` (any unit, printed as given) with `decimals` fixed decimals and a typographic minus; "∞"/"NaN" spelled out. */

@@ -2,3 +2,4 @@
 export * from "./parseQuantity.js";
 export * from "./parseColumnHeader.js";
 export * from "./unitTable.js";
+export * from "./plausibility.js";

@@ -33,7 +33,10 @@ describe("fringekit fit FILE", () => {
     const { code, stdout } = await runInProcess(["fit", line, "--json"]);
     expect(code).toBe(0);
     const json = JSON.parse(stdout);
-    expect(Object.keys(json)).toEqual(["model", "converged", "reason", "params", "stats", "warnings", "provenance"]);
+    expect(Object.keys(json)).toEqual(["model", "converged", "reason", "params", "stats", "warnings", "goodness", "provenance"]);
+    // Poisson counts: the χ² test runs; simulated from the model itself, so χ²/ν ≈ 1 (Pearson 1900).
+    expect(json.goodness).toMatchObject({ test: "pearson-chi2", verdict: "good" });
+    expect(json.goodness.fringes.significant).toBe(true);
     expect(Object.keys(json.stats)).toEqual(["n", "dof", "chi2", "reducedChi2", "logLikelihood", "aic", "aicc", "bic"]);
     expect(json.model).toBe("two-slit");
     expect(json.converged).toBe(true);
@@ -62,13 +65,14 @@ describe("fringekit fit FILE", () => {
     expect(stdout).toMatch(/separation d\s+\(\d+\.\d+ ± \d+\.\d+\) µm/);
   });
 
-  it("fringekit fit line.csv says which fixed parameters were held at model defaults, and stops once they are given", async () => {
+  it("fringekit fit line.csv says which geometry was taken from model defaults (default-geometry), and stops once it is given", async () => {
     const text = await runInProcess(["fit", line]);
-    expect(text.stdout).toMatch(/Held at model defaults because not given: wavelength 632\.8 nm, distance 1 m\./);
+    expect(text.stdout).toMatch(/Warning \(default-geometry, wavelength\): wavelength not given: the model default 632\.8 nm was used/);
+    expect(text.stdout).toMatch(/Warning \(default-geometry, distance\): distance not given: the model default 1 m was used/);
     const json = JSON.parse((await runInProcess(["fit", line, "--json", "--fix", "distance=1m"])).stdout);
-    expect(json.warnings.filter((w: { code: string }) => w.code === "assumed-default").map((w: { parameter: string }) => w.parameter)).toEqual(["wavelength"]);
+    expect(json.warnings.filter((w: { code: string }) => w.code === "default-geometry").map((w: { parameter: string }) => w.parameter)).toEqual(["wavelength"]);
     const given = await runInProcess(["fit", line, "--set", "wavelength=632.8nm", "--fix", "distance=1m"]);
-    expect(given.stdout).not.toMatch(/Held at model defaults/);
+    expect(given.stdout).not.toMatch(/default-geometry/);
   });
 
   it("fringekit fit with a bad --set is a usage error naming the parameter", async () => {
@@ -122,9 +126,12 @@ describe("fringekit fit FILE --figure / fringekit kernel install", () => {
 });
 
 describe("fringekit compare FILE --models", () => {
-  it("fringekit compare line.csv --models two-slit,single-slit --json ranks two-slit first", async () => {
-    const { code, stdout } = await runInProcess(["compare", line, "--models", "two-slit,single-slit", "--json"]);
-    expect(code).toBe(0);
+  it("fringekit compare line.csv --models two-slit,single-slit --json ranks two-slit first; the single slit's poor fit gives exit 3", async () => {
+    const { code, stdout, stderr } = await runInProcess(["compare", line, "--models", "two-slit,single-slit", "--json"]);
+    // A single slit cannot describe a two-slit pattern: its χ² test fails (documented exit 3).
+    expect(code).toBe(3);
+    expect(stderr).toMatch(/every fit converged, but single-slit: the model does not describe these data \(χ²\/ν = /);
+    expect((await runInProcess(["compare", line, "--models", "two-slit,single-slit", "--json", "--accept-doubtful"])).code).toBe(0);
     const json = JSON.parse(stdout);
     expect(json.preferred).toBe("two-slit");
     expect(Object.keys(json.ranking[0])).toEqual(expect.arrayContaining(["model", "aic", "bic", "deltaAic", "weight"]));

@@ -70,13 +70,17 @@ describe("parseTable(text, options)", () => {
     expect(profile.provenance?.notes.join(" ")).toMatch(/reversed/);
   });
 
-  it("parseTable warns about samples at a top code and masks them on request", () => {
+  it("parseTable(text) masks samples at a top code by default; maskSaturated: false keeps them", () => {
+    // 4095 = 2^12 − 1, the top code of a 12-bit detector (common practice); positions hand-counted.
     const text = "x [mm],counts\n" + [10, 200, 4095, 4095, 4095, 300, 20].map((v, i) => `${i},${v}`).join("\n");
-    const warned = parseTable(text, { source: "s.csv" });
-    expect(warned.warnings[0]).toMatch(/^3 samples sit at the detector top code 4095 \(saturated\?\) at x = 2–4 mm/);
-    expect(Array.from(warned.profile.mask!)).toEqual([1, 1, 1, 1, 1, 1, 1]);
-    const masked = parseTable(text, { source: "s.csv", maskSaturated: true });
+    const masked = parseTable(text, { source: "s.csv" });
     expect(Array.from(masked.profile.mask!)).toEqual([1, 1, 0, 0, 0, 1, 1]);
-    expect(masked.warnings[0]).toMatch(/^3 saturated samples \(value 4095\) masked at x = 2–4 mm/);
+    expect(masked.warnings[0]).toMatch(/^3 saturated samples \(at the detector top code 4095\) masked at x = 2–4 mm/);
+    expect(masked.profile.warnings).toEqual([{ code: "saturated-masked", message: masked.warnings[0] }]);
+    expect(masked.profile.provenance!.options["maskSaturated"]).toBe(true);
+    const kept = parseTable(text, { source: "s.csv", maskSaturated: false });
+    expect(Array.from(kept.profile.mask!)).toEqual([1, 1, 1, 1, 1, 1, 1]);
+    expect(kept.warnings[0]).toMatch(/^3 samples sit at the detector top code 4095 \(saturated\) at x = 2–4 mm and were kept as asked/);
+    expect(kept.profile.warnings![0]!.code).toBe("saturated-kept");
   });
 });

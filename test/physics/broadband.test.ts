@@ -40,9 +40,9 @@ describe('getModel("two-slit-broadband")', () => {
     const D = ((2 * Math.sqrt(Math.LN2)) / Math.PI) * LAMBDA ** 2 / bandwidth;
     const s = D / d;
     const xPeak = (L * s) / Math.sqrt(1 - s * s);
-    // at that path difference choose φ so that cos(k0 D + φ) = 1: I = A (1 + V e^{−1}) for a flat envelope
+    // at that path difference choose φ so that cos(k0 D + φ) = 1: I = (A/2)(1 + V e^{−1}) for a flat envelope (A = 2 here)
     const phase = -(((2 * Math.PI) / LAMBDA) * D) % (2 * Math.PI);
-    const out = evaluate("two-slit-broadband", { amplitude: 1, separation: d, width: 1e-12, visibility: 1, phase, wavelength: LAMBDA, bandwidth, distance: L }, new Float64Array([xPeak]), { pixelNodes: 1 });
+    const out = evaluate("two-slit-broadband", { amplitude: 2, separation: d, width: 1e-12, visibility: 1, phase, wavelength: LAMBDA, bandwidth, distance: L }, new Float64Array([xPeak]), { pixelNodes: 1 });
     expect(Math.abs(out[0]! - (1 + Math.exp(-1)))).toBeLessThan(1e-9);
   });
 

@@ -11,7 +11,8 @@ const period = (2 * Math.PI) / q;
 
 function cosineCase(pixelWidth: number, blur: number, options = {}): { got: Float64Array; x: Float64Array } {
   const model = getModel("two-slit", { smallAngle: true, ...options });
-  const p = paramVector(model, { amplitude: 1, center: 0, separation: D, width: 1e-15, visibility: 1, phase: 0.2, wavelength: LAMBDA, distance: L, pixelWidth, blur });
+  // amplitude 2 = coherent peak, so the mean level is 1
+  const p = paramVector(model, { amplitude: 2, center: 0, separation: D, width: 1e-15, visibility: 1, phase: 0.2, wavelength: LAMBDA, distance: L, pixelWidth, blur });
   const x = new Float64Array(50).map((_, i) => (i * period) / 37);
   const got = new Float64Array(x.length);
   model.evaluate(x, p, got);

@@ -15,10 +15,10 @@ function maxAbs(values: ArrayLike<number>): number {
 describe("far-field models against a direct numerical Fraunhofer integral of the aperture", () => {
   it('getModel("two-slit") equals |∫ t(ξ) e^{−iksξ} dξ|² for slits of amplitude 1 and τ e^{−iφ}', () => {
     const a = 0.1e-3, d = 0.5e-3, L = 1, tau = 0.6, phi = 0.7, center = 0.2e-3;
-    // unequal beams: V = 2√(I1 I2)/(I1 + I2) with I2/I1 = τ²; A = a²(1 + τ²) (derivation in the model comment)
+    // unequal beams: V = 2√(I1 I2)/(I1 + I2) with I2/I1 = τ²; mean level a²(1 + τ²), amplitude (coherent peak) twice that
     const V = visibilityFromBeams(1, tau * tau, 1);
     const x = pixelPositions(500, 40e-6, center);
-    const got = evaluate("two-slit", { amplitude: a * a * (1 + tau * tau), center, separation: d, width: a, visibility: V, phase: phi, wavelength: LAMBDA, distance: L }, x);
+    const got = evaluate("two-slit", { amplitude: 2 * a * a * (1 + tau * tau), center, separation: d, width: a, visibility: V, phase: phi, wavelength: LAMBDA, distance: L }, x);
     const slits: Slit[] = [
       { center: -d / 2, width: a, re: 1, im: 0 },
       { center: d / 2, width: a, re: tau * Math.cos(-phi), im: tau * Math.sin(-phi) },
@@ -79,7 +79,8 @@ describe("far-field models against a direct numerical Fraunhofer integral of the
     const n = 2_000_001;
     const h = (2 * S) / (n - 1);
     const x = new Float64Array(n).map((_, i) => -S + i * h);
-    const I = evaluate("two-slit", { amplitude: A, separation: d, width: a, visibility: 1, phase: 0, distance: 1 }, x, { smallAngle: true, pixelNodes: 1 });
+    // amplitude = coherent peak 2A: mean level A
+    const I = evaluate("two-slit", { amplitude: 2 * A, separation: d, width: a, visibility: 1, phase: 0, distance: 1 }, x, { smallAngle: true, pixelNodes: 1 });
     let sum = 0;
     for (let i = 0; i < n; i++) sum += (i === 0 || i === n - 1 ? 0.5 : 1) * I[i]!;
     sum *= h;

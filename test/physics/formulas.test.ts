@@ -20,7 +20,7 @@ describe("closed-form helpers", () => {
   });
   it("maximumPosition(exact) sits on a maximum of the exact two-slit model (narrow slits, V = 1)", () => {
     const model = getModel("two-slit", { pixelNodes: 1 });
-    const p = paramVector(model, { amplitude: 1, separation: 20e-6, width: 1e-12, visibility: 1, phase: 0, distance: 1 });
+    const p = paramVector(model, { amplitude: 2, separation: 20e-6, width: 1e-12, visibility: 1, phase: 0, distance: 1 }); // coherent peak 2
     const x = maximumPosition(10, 632.8e-9, 1, 20e-6, true); // sin θ = 0.3164: small-angle would be off by 16 mm
     const out = new Float64Array(3);
     model.evaluate(new Float64Array([x - 1e-6, x, x + 1e-6]), p, out);

@@ -19,7 +19,8 @@ describe("twoSlitModel", () => {
       const s = u / Math.hypot(u, B1.distance);
       const beta = (Math.PI * B1.width * s) / B1.wavelength;
       const envelope = beta === 0 ? 1 : (Math.sin(beta) / beta) ** 2;
-      const expected = B1.background + B1.amplitude * envelope * (1 + B1.visibility * Math.cos((2 * Math.PI * B1.separation * s) / B1.wavelength + B1.phase));
+      // amplitude = peak of the fully coherent pattern, so the two-beam sum carries amplitude/2
+      const expected = B1.background + (B1.amplitude / 2) * envelope * (1 + B1.visibility * Math.cos((2 * Math.PI * B1.separation * s) / B1.wavelength + B1.phase));
       expect(Math.abs(out[i]! - expected)).toBeLessThan(1e-9 * expected);
     });
   });
@@ -41,7 +42,7 @@ describe("twoSlitModel", () => {
     const grad = new Float64Array(9);
     const value = pattern.valueGrad(B1.center, grad);
     // at s = 0: I = A (1 + V cos φ) exactly
-    expect(value).toBeCloseTo(B1.amplitude * (1 + B1.visibility * Math.cos(B1.phase)), 8);
+    expect(value).toBeCloseTo((B1.amplitude / 2) * (1 + B1.visibility * Math.cos(B1.phase)), 8);
     checkJacobian(model, params, new Float64Array([B1.center, B1.center + 1e-9, B1.center - 2e-7]));
   });
 

@@ -4,6 +4,7 @@
  * Fisher-information covariance, so the figures do not depend on the fitter's iterations.
  */
 import type { FitParameter, FitResult } from "../../src/fit/types.js";
+import { goodnessOfFit } from "../../src/fit/goodness.js";
 import type { Model } from "../../src/physics/model.js";
 import { getModel } from "../../src/physics/registry.js";
 import { paramVector, pixelPositions, simulateProfile } from "../../src/physics/simulate.js";
@@ -13,7 +14,8 @@ import type { ProfileCurve } from "../../src/report/figures/profileLikelihoodFig
 
 /** B1-like truth (shared/bench/PROBLEMS.md), on a shorter 1024-pixel line with 11 µm pitch. */
 export const TWO_SLIT_TRUTH = {
-  amplitude: 20000, background: 150, center: 0.37e-3, separation: 0.5e-3, width: 0.1e-3,
+  amplitude: 40000, // coherent peak (mean level 20000 as in the snapshots)
+  background: 150, center: 0.37e-3, separation: 0.5e-3, width: 0.1e-3,
   visibility: 0.85, phase: 0.3, wavelength: 632.8e-9, distance: 1,
 };
 
@@ -65,7 +67,7 @@ export function resultAt(model: Model, profile: Profile, truth: Record<string, n
       n: nUsed, nFree: k, dof: nUsed - k, chi2, reducedChi2: chi2 / (nUsed - k), objective: chi2, logLikelihood: logL,
       aic: 2 * k - 2 * logL, aicc: 2 * k - 2 * logL + (2 * k * (k + 1)) / (nUsed - k - 1), bic: k * Math.log(nUsed) - 2 * logL,
     },
-    warnings: [], model: f, residuals, flagged: [],
+    warnings: [], model: f, residuals, flagged: [], goodness: goodnessOfFit(NaN, 0, false),
   };
 }
 

@@ -1,5 +1,6 @@
 // Hand-made FitResult objects for report tests: numbers are invented, shaped like a B1 fit.
 import type { FitParameter, FitResult } from "../../src/fit/types.js";
+import { goodnessOfFit } from "../../src/fit/goodness.js";
 
 function param(name: string, unit: string, value: number, stderr: number, extra: Partial<FitParameter> = {}): FitParameter {
   return { name, unit, value, stderr, fixed: stderr === 0, tied: null, atBound: null, lower: -Infinity, upper: Infinity, ...extra };
@@ -51,6 +52,7 @@ export function makeFitResult(overrides: Partial<FitResult> = {}): FitResult {
     model: new Float64Array(n).map((_, i) => 150 + 100 * i),
     residuals: new Float64Array(n).map((_, i) => Math.sin(i)),
     flagged: [],
+    goodness: goodnessOfFit(58.3, n - k, true),
     ...overrides,
   };
 }

@@ -80,7 +80,7 @@ describe("fitReport(result, options)", () => {
   });
   it("fitReport(...).toMarkdown() has one table line per row with columns + 1 bare pipes", () => {
     const lines = report.toMarkdown().split("\n").filter((l) => l.startsWith("|"));
-    expect(lines.length).toBe(2 + result.parameters.length + 9); // header + rule + parameters + section and 8 statistics rows (hand count of fitTable)
+    expect(lines.length).toBe(2 + result.parameters.length + 10); // header + rule + parameters + section, 8 statistics rows and the goodness-of-fit row (hand count of fitTable)
     for (const l of lines) expect(l.replace(/\\\|/g, "").split("|").length - 1).toBe(3);
     expect(report.toMarkdown()).not.toMatch(/<script/);
   });
@@ -134,7 +134,7 @@ describe("comparisonReport(fits, options)", () => {
     const table = comparisonTable(verdict);
     expect(table.rows.map((r) => ("cells" in r ? r.cells[0] : r.section))).toEqual(["far", "near (not converged)"]);
     const second = table.rows[1];
-    expect("cells" in second ? second.cells[6] : undefined).toBe("0");
+    expect("cells" in second ? second.cells[7] : undefined).toBe("0"); // weight column, after the goodness-of-fit column
   });
   it("rankFits refuses fits of different point counts or noise models", () => {
     const other = makeFitResult({ noise: "gaussian" });

@@ -1,5 +1,6 @@
 // Hand-made FitResult objects for testing comparison code without the fitter.
 import type { FitResult, NoiseModelId } from "../../src/fit/types.js";
+import { goodnessOfFit } from "../../src/fit/goodness.js";
 
 export interface FakeFitSpec {
   modelId: string;
@@ -76,5 +77,6 @@ export function fakeFit(spec: FakeFitSpec): FitResult {
     model: new Float64Array(residuals.length),
     residuals,
     flagged: [],
+    goodness: goodnessOfFit(spec.chi2, spec.n - k, false),
   };
 }

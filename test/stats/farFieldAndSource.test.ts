@@ -21,12 +21,27 @@ describe("farFieldValidity", () => {
     expect(check.fresnelNumber.value).toBeGreaterThan(2.9);
     expect(check.valid).toBe(false);
     expect(check.warning).toMatch(/two-slit is a far-field model used outside its range .*fit "two-slit-fresnel" instead/);
+    // Distance where both numbers reach 0.1, by hand: max(a², d·a)/(0.1 λ) = 4.4e-7/6.328e-8 = 6.95 m.
+    expect(check.warning).toMatch(/or move the detector to at least 7\.0 m$/);
     const nearModel = farFieldValidity({ ...fit, modelId: "two-slit-fresnel" });
     expect(nearModel.warning).toBeUndefined();
     // the source-size models are two-slit far-field patterns too
     for (const modelId of ["two-slit-disc-source", "two-slit-gaussian-source"]) {
       expect(farFieldValidity({ ...fit, modelId }).warning).toMatch(new RegExp(`^${modelId} is a far-field model used outside its range`));
     }
+  });
+});
+
+describe("farFieldValidity(broadband fit in the near field)", () => {
+  it("farFieldValidity(fit) never sends a fit with bandwidth or partial coherence to the monochromatic near-field model", () => {
+    const near = { amplitude: 1, center: 0, separation: 1e-3, width: 0.44e-3, wavelength: 590e-9, distance: 0.1, visibility: 0.7, bandwidth: 15e-9 };
+    const fit = fakeFit({ modelId: "two-slit-broadband", free: ["amplitude", "visibility", "bandwidth"], values: near, stderr: { visibility: 0.01, bandwidth: 1e-9 }, logLikelihood: 0, chi2: 1, n: 10 });
+    const check = farFieldValidity(fit);
+    expect(check.warning).not.toMatch(/fit "two-slit-fresnel" instead/);
+    expect(check.warning).toMatch(/"two-slit-fresnel" has no visibility below 1 \(partial coherence\) or spectral bandwidth, which this fit needs, so no built-in model covers these data: move the detector/);
+    // A bandwidth fitted as 0 ± 1 nm and visibility 1 need nothing the near-field model lacks.
+    const neutral = fakeFit({ modelId: "two-slit-broadband", free: ["amplitude", "visibility", "bandwidth"], values: { ...near, visibility: 1, bandwidth: 0.5e-9 }, stderr: { visibility: 0.01, bandwidth: 1e-9 }, logLikelihood: 0, chi2: 1, n: 10 });
+    expect(farFieldValidity(neutral).warning).toMatch(/fit "two-slit-fresnel" instead/);
   });
 });
 
