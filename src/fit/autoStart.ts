@@ -52,18 +52,7 @@ export function autoStartCandidates(x: Float64Array, y: Float64Array, wavelength
   const background0 = sorted[Math.floor(0.02 * (n - 1))];
 
   // 3. Centre from mirror symmetry: peak of the self-convolution of (envelope − background).
-  const conv = nextPowerOfTwo(2 * n);
-  const er = new Float64Array(conv), ei = new Float64Array(conv);
-  for (let i = 0; i < n; i++) er[i] = Math.max(envelope[i] - background0, 0);
-  fftInPlace(er, ei);
-  for (let k = 0; k < conv; k++) {
-    const r = er[k], i = ei[k];
-    er[k] = r * r - i * i; ei[k] = 2 * r * i;
-  }
-  fftInPlace(er, ei, true);
-  let best = 0;
-  for (let m = 1; m < 2 * n - 1; m++) if (er[m] > er[best]) best = m;
-  const centerIndex = best / 2;
+  const centerIndex = symmetryIndex(envelope, background0);
   const center = x[0] + centerIndex * dx;
 
   // 4. Width from the envelope's fall-off, relative to a background level.
@@ -108,8 +97,28 @@ export function autoStartCandidates(x: Float64Array, y: Float64Array, wavelength
   return results.slice(0, count).map((r) => r.start);
 }
 
+/**
+ * Grid index (fractional, half steps) of best mirror symmetry of max(v − floor, 0): the peak of
+ * its self-convolution (a symmetric pattern about c convolved with itself peaks at 2c).
+ */
+export function symmetryIndex(values: Float64Array, floor: number): number {
+  const n = values.length;
+  const conv = nextPowerOfTwo(2 * n);
+  const er = new Float64Array(conv), ei = new Float64Array(conv);
+  for (let i = 0; i < n; i++) er[i] = Math.max(values[i] - floor, 0);
+  fftInPlace(er, ei);
+  for (let k = 0; k < conv; k++) {
+    const r = er[k], i = ei[k];
+    er[k] = r * r - i * i; ei[k] = 2 * r * i;
+  }
+  fftInPlace(er, ei, true);
+  let best = 0;
+  for (let m = 1; m < 2 * n - 1; m++) if (er[m] > er[best]) best = m;
+  return best / 2;
+}
+
 /** Fringe spatial frequency (cycles/m) from the Hann-windowed, 4× zero-padded spectrum; null when no peak. */
-function fringeFrequency(grid: Float64Array, dx: number): { frequency: number; size: number } | null {
+export function fringeFrequency(grid: Float64Array, dx: number): { frequency: number; size: number } | null {
   const n = grid.length;
   const size = nextPowerOfTwo(n) * 4;
   const re = new Float64Array(size), im = new Float64Array(size);
@@ -159,7 +168,7 @@ function linearEnvelopeFit(y: Float64Array, x0: number, dx: number, center: numb
 }
 
 /** Solves sinc²(β) = r for β in (0, π) by bisection (sinc² is decreasing there). */
-function sincSquaredInverse(r: number): number {
+export function sincSquaredInverse(r: number): number {
   let lo = 0, hi = Math.PI;
   for (let it = 0; it < 60; it++) {
     const mid = 0.5 * (lo + hi);
@@ -169,7 +178,8 @@ function sincSquaredInverse(r: number): number {
   return 0.5 * (lo + hi);
 }
 
-function resampleUniform(x: Float64Array, y: Float64Array, dx: number): Float64Array {
+/** y resampled on the uniform grid x[0] + i·dx (linear interpolation), same length. */
+export function resampleUniform(x: Float64Array, y: Float64Array, dx: number): Float64Array {
   const n = x.length;
   const out = new Float64Array(n);
   let j = 0;
@@ -182,7 +192,8 @@ function resampleUniform(x: Float64Array, y: Float64Array, dx: number): Float64A
   return out;
 }
 
-function movingAverage(y: Float64Array, width: number): Float64Array {
+/** Moving average over `width` samples (shrinking at the ends). */
+export function movingAverage(y: Float64Array, width: number): Float64Array {
   const n = y.length;
   const prefix = new Float64Array(n + 1);
   for (let i = 0; i < n; i++) prefix[i + 1] = prefix[i] + y[i];
@@ -195,8 +206,13 @@ function movingAverage(y: Float64Array, width: number): Float64Array {
   return out;
 }
 
-function linearFringeFit(y: Float64Array, x0: number, dx: number, center: number, separation: number, width: number,
-  wavelength: number, sine: (u: number) => number): { rss: number; start: Record<string, number> } | null {
+/**
+ * Background, amplitude, visibility and phase by linear least squares of
+ * y ≈ b + E·(A + B cos θ + C sin θ), θ = 2π d s/λ, on the uniform grid x0 + i·dx; E is the sinc²
+ * envelope of slit width `width`, or `envelopeAt(u)` (u = x − center) when given.
+ */
+export function linearFringeFit(y: Float64Array, x0: number, dx: number, center: number, separation: number, width: number,
+  wavelength: number, sine: (u: number) => number, envelopeAt?: (u: number) => number): { rss: number; start: Record<string, number> } | null {
   const n = y.length;
   const ata = new Float64Array(16), aty = new Float64Array(4), row = new Float64Array(4);
   let lowest = Infinity;
@@ -204,7 +220,7 @@ function linearFringeFit(y: Float64Array, x0: number, dx: number, center: number
   for (let i = 0; i < n; i++) {
     const s = sine(x0 + i * dx - center);
     const beta = (Math.PI * width * s) / wavelength;
-    const envelope = beta === 0 ? 1 : (Math.sin(beta) / beta) ** 2;
+    const envelope = envelopeAt ? envelopeAt(x0 + i * dx - center) : beta === 0 ? 1 : (Math.sin(beta) / beta) ** 2;
     const theta = (2 * Math.PI * separation * s) / wavelength;
     row[0] = 1; row[1] = envelope; row[2] = envelope * Math.cos(theta); row[3] = envelope * Math.sin(theta);
     for (let a = 0; a < 4; a++) {
@@ -220,7 +236,7 @@ function linearFringeFit(y: Float64Array, x0: number, dx: number, center: number
   for (let i = 0; i < n; i++) {
     const s = sine(x0 + i * dx - center);
     const beta = (Math.PI * width * s) / wavelength;
-    const envelope = beta === 0 ? 1 : (Math.sin(beta) / beta) ** 2;
+    const envelope = envelopeAt ? envelopeAt(x0 + i * dx - center) : beta === 0 ? 1 : (Math.sin(beta) / beta) ** 2;
     const theta = (2 * Math.PI * separation * s) / wavelength;
     const f = background + envelope * (amplitude + b * Math.cos(theta) + c * Math.sin(theta));
     rss += (y[i] - f) ** 2;
