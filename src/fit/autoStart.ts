@@ -39,8 +39,19 @@ export function autoStartCandidates(x: Float64Array, y: Float64Array, wavelength
   const grid = resampleUniform(x, y, dx);
 
   // 1. Fringe frequency from the spectrum (no fringes: a short smoothing window instead).
-  const spectral = fringes ? fringeFrequency(grid, dx) : null;
-  if (fringes && !spectral) return [];
+  if (!fringes) return startsAtFrequency(grid, x, dx, null, wavelength, distance, smallAngle, false).slice(0, count).map((r) => r.start);
+  const frequencies = fringeFrequencyCandidates(grid, dx);
+  if (frequencies.length === 0) return [];
+  // Each spectral candidate gives its own starts; the two best of each compete by residual sum.
+  const results = frequencies.flatMap((f) => startsAtFrequency(grid, x, dx, f, wavelength, distance, smallAngle, true).slice(0, 2));
+  results.sort((p, q) => p.rss - q.rss);
+  return results.slice(0, count).map((r) => r.start);
+}
+
+/** Steps 2–5 of {@link autoStartCandidates} for one fringe frequency (null: no fringes), best first. */
+function startsAtFrequency(grid: Float64Array, x: Float64Array, dx: number, spectral: { frequency: number; size: number } | null,
+  wavelength: number, distance: number, smallAngle: boolean, fringes: boolean): { rss: number; start: Record<string, number> }[] {
+  const n = grid.length;
   const frequency = spectral ? spectral.frequency : 0;
   const size = spectral ? spectral.size : 0;
   const separation = frequency * wavelength * distance;
@@ -82,7 +93,7 @@ export function autoStartCandidates(x: Float64Array, y: Float64Array, wavelength
   if (firstPass) width = widthFor(Math.min(firstPass.start.background, background0));
   if (!fringes) {
     const fit = linearEnvelopeFit(grid, x[0], dx, center, width, wavelength, sine);
-    return fit ? [fit.start] : [];
+    return fit ? [fit] : [];
   }
 
   // 5. Linear least squares for background, amplitude, visibility, phase at neighbouring frequencies.
@@ -94,7 +105,7 @@ export function autoStartCandidates(x: Float64Array, y: Float64Array, wavelength
     if (fit) results.push(fit);
   }
   results.sort((p, q) => p.rss - q.rss);
-  return results.slice(0, count).map((r) => r.start);
+  return results;
 }
 
 /**
@@ -117,8 +128,26 @@ export function symmetryIndex(values: Float64Array, floor: number): number {
   return best / 2;
 }
 
-/** Fringe spatial frequency (cycles/m) from the Hann-windowed, 4× zero-padded spectrum; null when no peak. */
-export function fringeFrequency(grid: Float64Array, dx: number): { frequency: number; size: number } | null {
+/**
+ * Candidate fringe frequencies (cycles/m), most likely first: the spectral peak of
+ * {@link fringeFrequency}, then the next strongest local maxima of |F| beyond the envelope's lobe
+ * (at least two unpadded bins apart). An envelope with several side lobes in the window (narrow
+ * slits) can outshine weak fringes in |F|, so the fringe peak may be the second or third maximum;
+ * the caller tells them apart by fitting each.
+ */
+export function fringeFrequencyCandidates(grid: Float64Array, dx: number, count = 4): { frequency: number; size: number }[] {
+  const first = fringeFrequency(grid, dx);
+  const out: { frequency: number; size: number }[] = first ? [first] : [];
+  for (let rank = 1; out.length < count && rank <= 3 * count; rank++) {
+    const more = fringeFrequency(grid, dx, rank);
+    if (!more) break;
+    if (out.every((f) => Math.abs(f.frequency - more.frequency) * more.size * dx > 8)) out.push(more);
+  }
+  return out;
+}
+
+/** Fringe spatial frequency (cycles/m) from the Hann-windowed, 4× zero-padded spectrum (rank > 0: the rank-th strongest local maximum, 0 the strongest); null when no peak. */
+export function fringeFrequency(grid: Float64Array, dx: number, rank = 0): { frequency: number; size: number } | null {
   const n = grid.length;
   const size = nextPowerOfTwo(n) * 4;
   const re = new Float64Array(size), im = new Float64Array(size);
@@ -137,7 +166,18 @@ export function fringeFrequency(grid: Float64Array, dx: number): { frequency: nu
   while (k0 + 4 < half - 1 && power[k0 + 4] >= power[k0] && k0 < 8) k0 += 4;
   while (k0 + 4 < half - 1 && power[k0 + 4] < power[k0]) k0 += 4;
   let peak = -1;
-  for (let k = k0 + 1; k < half - 1; k++) if (peak < 0 || power[k] > power[peak]) peak = k;
+  if (rank > 0) {
+    // The rank-th strongest local maximum (padded bins, above its two neighbours on each side).
+    const maxima: number[] = [];
+    for (let k = k0 + 2; k < half - 2; k++) {
+      if (power[k] > power[k - 1] && power[k] >= power[k + 1] && power[k] > power[k - 2] && power[k] >= power[k + 2]) maxima.push(k);
+    }
+    maxima.sort((p, q) => power[q] - power[p]);
+    if (rank >= maxima.length) return null;
+    peak = maxima[rank];
+  } else {
+    for (let k = k0 + 1; k < half - 1; k++) if (peak < 0 || power[k] > power[peak]) peak = k;
+  }
   if (peak <= 0 || !(power[peak] > power[peak - 1] && power[peak] >= power[peak + 1])) return null;
   const [a0, b0, c0] = [Math.log(power[peak - 1] + 1e-300), Math.log(power[peak] + 1e-300), Math.log(power[peak + 1] + 1e-300)];
   const denominator = a0 - 2 * b0 + c0;

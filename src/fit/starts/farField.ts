@@ -28,7 +28,7 @@ export function farFieldCandidates(ctx: StartContext): Record<string, number>[] 
   const wavelength = has("wavelength") ? known("wavelength") : ctx.effectiveWavelength();
   const slits = has("slits") ? Math.max(1, Math.round(known("slits"))) : 2;
   const fringes = has("separation") && slits !== 1;
-  const base = autoStartCandidates(x, y, wavelength, distance, false, 5, fringes);
+  const base = autoStartCandidates(x, y, wavelength, distance, false, 8, fringes);
   const out: Record<string, number>[] = [];
   const sine = (u: number): number => u / Math.sqrt(u * u + distance * distance);
   for (const c of base) {
