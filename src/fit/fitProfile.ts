@@ -68,7 +68,10 @@ export function fitWithStarts(profile: Profile, model: Model, options: FitOption
     fitted.parameters.forEach((p) => { start[p.name] = p.value; });
     return withStarts(prep, searchStarts(prep, [start]), warnings, `${method}, then a gaussian fit's optimum`);
   }
-  return withStarts(prep, searchStarts(prep, candidates), warnings, method);
+  // A start the user gave for every free parameter is run as given; automatic or seeded starts
+  // are run until the best optimum is confirmed by a second start.
+  const automatic = candidates.length > 1 || extra.length > 0 || wantAuto;
+  return withStarts(prep, searchStarts(prep, candidates, automatic), warnings, method);
 }
 
 /** Summarizes the best outcome and adds `starts` and any "starts-disagree" warning. */
