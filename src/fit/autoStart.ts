@@ -175,6 +175,10 @@ export function fringeFrequency(grid: Float64Array, dx: number, rank = 0): { fre
     maxima.sort((p, q) => power[q] - power[p]);
     if (rank >= maxima.length) return null;
     peak = maxima[rank];
+    // Only peaks well above the noise floor (median |F| over the upper half of the band, where
+    // the noise dominates; the largest of thousands of noise bins is about 3.5× that median).
+    const upper = Array.from(power.subarray(half >> 1, half)).sort((p, q) => p - q);
+    if (!(power[peak] > 8 * upper[upper.length >> 1])) return null;
   } else {
     for (let k = k0 + 1; k < half - 1; k++) if (peak < 0 || power[k] > power[peak]) peak = k;
   }

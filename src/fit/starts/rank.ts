@@ -94,10 +94,13 @@ export function rescaleCandidate(prep: PreparedFit, candidate: Record<string, nu
 
 /**
  * Rescales and scores every candidate, drops near-duplicates (all free start values within 1e-6
- * relative) and returns the best `keep`, best first.
+ * relative) and returns the best `keep`, best first. The heuristic's own first choice is always
+ * kept (last when it ranks lower): a score at the start is only a guess at where the solver ends.
  */
 export function rankCandidates(prep: PreparedFit, candidates: Record<string, number>[], keep: number, stride = 1): RankedStart[] {
-  const ranked = candidates.map((c) => rescaleCandidate(prep, c, stride)).filter((r) => r.score < Infinity);
+  const all = candidates.map((c) => rescaleCandidate(prep, c, stride));
+  const first = all[0];
+  const ranked = all.filter((r) => r.score < Infinity);
   ranked.sort((a, b) => a.score - b.score);
   const out: RankedStart[] = [];
   const vectors: Float64Array[] = [];
@@ -107,6 +110,11 @@ export function rankCandidates(prep: PreparedFit, candidates: Record<string, num
     vectors.push(v);
     out.push(r);
     if (out.length >= keep) break;
+  }
+  if (first && first.score < Infinity && !out.includes(first) && out.length > 0) {
+    const v = startVector(prep, first.start);
+    const duplicate = vectors.some((u) => u.every((value, k) => Math.abs(value - v[k]) <= 1e-6 * Math.max(Math.abs(value), Math.abs(v[k]), 1e-300)));
+    if (!duplicate) out[Math.min(out.length, keep - 1)] = first;
   }
   return out;
 }
