@@ -2,7 +2,8 @@
  * Automatic starting values for far-field two-beam/two-slit models (parameters named amplitude,
  * center, separation, width, visibility, phase, background; wavelength and distance known):
  *   1. fringe spatial frequency ν from the peak of the Hann-windowed, zero-padded spectrum
- *      (parabolic interpolation), separation d = ν·λ·L;
+ *      (parabolic interpolation), separation d = ν·λ·L; the next strongest local maxima well
+ *      above the noise floor are tried too (an envelope's side lobes can outshine weak fringes);
  *   2. envelope = moving average over exactly one fringe period (removes the cosine);
  *   3. centre = point of best mirror symmetry of the envelope (peak of its self-convolution);
  *   4. slit width a from where the envelope falls to a fraction r of its peak: sinc²(πas/λ) = r;
@@ -10,6 +11,7 @@
  *      y ≈ b + A·E + B·E·cos θ + C·E·sin θ (E the sinc² envelope, θ = 2π d s/λ), for the
  *      frequency and four neighbours a quarter spectral bin apart; ranked by residual sum.
  * Returns a few candidate starts, best first; an empty list when the data show no fringes.
+ * (fitProfile uses these through src/fit/starts, which covers every built-in model.)
  */
 import type { Model } from "../physics/model.js";
 import { fftInPlace, nextPowerOfTwo } from "./fft.js";

@@ -17,7 +17,8 @@ export { summarize } from "./summarize.js";
  * Fits `model` to `profile`.
  * Method: bounded Levenberg–Marquardt (see leastSquares) on the residuals of the noise model
  * (gaussian χ², Poisson deviance, or soft-L1 robust loss), from automatic starting values
- * (a few candidates, best objective kept) unless `start` gives every free parameter.
+ * (src/fit/starts: candidates for every built-in model, ranked, run until the best optimum is
+ * reached from two starts; `result.starts` reports it) unless `start` gives every free parameter.
  * Units: SI throughout (positions m, parameters in their spec units, intensities as in y).
  * A fit that does not converge is returned with converged = false and a reason.
  * @example fitProfile(profile, getModel("two-slit"), { fix: { pixelWidth: 5.5e-6 } })
