@@ -1,5 +1,5 @@
 /** `fringekit compare FILE --models A,B,... [fit settings] [--json]`. */
-import { compareFits, comparisonDocument, comparisonJson, comparisonTable, fitProfile, getModel, stringifyResults, tableToText, type FitResult } from "../../src/index.js";
+import { compareFits, comparisonDocument, comparisonJson, comparisonTable, fitCandidates, getModel, stringifyResults, tableToText, type FitResult } from "../../src/index.js";
 import { DOUBTFUL_EXIT, doubtfulAdvice, doubtfulSummary } from "../doubtful.js";
 import { fitSettings, notConvergedSummary } from "../fitSettings.js";
 import { writeOutputFile } from "../files.js";
@@ -17,16 +17,17 @@ export function compareCommand(words: readonly string[]): CommandOutput {
   if (ids.length < 2) throw new UsageError("compare needs at least two models: --models two-slit,n-slit");
   const path = args.positionals[0]!;
   const loaded = loadData(path, args);
-  const fits: FitResult[] = [];
   const fitOptions: Record<string, unknown>[] = [];
-  for (const id of ids) {
+  const candidates = ids.map((id) => {
     const model = getModel(id);
     // --set/--fix name parameters of any of the models; each model takes the ones it has.
     const own = (words: readonly string[]): string[] => words.filter((w) => model.parameters.some((p) => p.name === w.split("=")[0]!.trim()));
     const settings = fitSettings(model, own(args.lists.get("set") ?? []), own(args.lists.get("fix") ?? []), args.values.get("noise"), args.values.get("max-evaluations"));
-    fits.push(fitProfile(loaded.profile, model, settings));
     fitOptions.push({ ...settings });
-  }
+    return { model, options: settings };
+  });
+  // Each model also starts from the others' fitted geometry (near field from far field and back).
+  const fits: FitResult[] = fitCandidates(loaded.profile, candidates);
   // Default geometry and saturation are warnings of each result; the data's other notes stay here.
   const carried = new Set((loaded.profile.warnings ?? []).map((w) => w.message));
   const geometry = [...new Set(fits.flatMap((fit) => fit.warnings.filter((w) => w.code === "default-geometry" || carried.has(w.message)).map((w) => w.message)))];

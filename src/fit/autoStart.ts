@@ -2,7 +2,8 @@
  * Automatic starting values for far-field two-beam/two-slit models (parameters named amplitude,
  * center, separation, width, visibility, phase, background; wavelength and distance known):
  *   1. fringe spatial frequency ν from the peak of the Hann-windowed, zero-padded spectrum
- *      (parabolic interpolation), separation d = ν·λ·L;
+ *      (parabolic interpolation), separation d = ν·λ·L; the next strongest local maxima well
+ *      above the noise floor are tried too (an envelope's side lobes can outshine weak fringes);
  *   2. envelope = moving average over exactly one fringe period (removes the cosine);
  *   3. centre = point of best mirror symmetry of the envelope (peak of its self-convolution);
  *   4. slit width a from where the envelope falls to a fraction r of its peak: sinc²(πas/λ) = r;
@@ -10,6 +11,7 @@
  *      y ≈ b + A·E + B·E·cos θ + C·E·sin θ (E the sinc² envelope, θ = 2π d s/λ), for the
  *      frequency and four neighbours a quarter spectral bin apart; ranked by residual sum.
  * Returns a few candidate starts, best first; an empty list when the data show no fringes.
+ * (fitProfile uses these through src/fit/starts, which covers every built-in model.)
  */
 import type { Model } from "../physics/model.js";
 import { fftInPlace, nextPowerOfTwo } from "./fft.js";
@@ -39,8 +41,19 @@ export function autoStartCandidates(x: Float64Array, y: Float64Array, wavelength
   const grid = resampleUniform(x, y, dx);
 
   // 1. Fringe frequency from the spectrum (no fringes: a short smoothing window instead).
-  const spectral = fringes ? fringeFrequency(grid, dx) : null;
-  if (fringes && !spectral) return [];
+  if (!fringes) return startsAtFrequency(grid, x, dx, null, wavelength, distance, smallAngle, false).slice(0, count).map((r) => r.start);
+  const frequencies = fringeFrequencyCandidates(grid, dx);
+  if (frequencies.length === 0) return [];
+  // Each spectral candidate gives its own starts; the two best of each compete by residual sum.
+  const results = frequencies.flatMap((f) => startsAtFrequency(grid, x, dx, f, wavelength, distance, smallAngle, true).slice(0, 2));
+  results.sort((p, q) => p.rss - q.rss);
+  return results.slice(0, count).map((r) => r.start);
+}
+
+/** Steps 2–5 of {@link autoStartCandidates} for one fringe frequency (null: no fringes), best first. */
+function startsAtFrequency(grid: Float64Array, x: Float64Array, dx: number, spectral: { frequency: number; size: number } | null,
+  wavelength: number, distance: number, smallAngle: boolean, fringes: boolean): { rss: number; start: Record<string, number> }[] {
+  const n = grid.length;
   const frequency = spectral ? spectral.frequency : 0;
   const size = spectral ? spectral.size : 0;
   const separation = frequency * wavelength * distance;
@@ -52,18 +65,7 @@ export function autoStartCandidates(x: Float64Array, y: Float64Array, wavelength
   const background0 = sorted[Math.floor(0.02 * (n - 1))];
 
   // 3. Centre from mirror symmetry: peak of the self-convolution of (envelope − background).
-  const conv = nextPowerOfTwo(2 * n);
-  const er = new Float64Array(conv), ei = new Float64Array(conv);
-  for (let i = 0; i < n; i++) er[i] = Math.max(envelope[i] - background0, 0);
-  fftInPlace(er, ei);
-  for (let k = 0; k < conv; k++) {
-    const r = er[k], i = ei[k];
-    er[k] = r * r - i * i; ei[k] = 2 * r * i;
-  }
-  fftInPlace(er, ei, true);
-  let best = 0;
-  for (let m = 1; m < 2 * n - 1; m++) if (er[m] > er[best]) best = m;
-  const centerIndex = best / 2;
+  const centerIndex = symmetryIndex(envelope, background0);
   const center = x[0] + centerIndex * dx;
 
   // 4. Width from the envelope's fall-off, relative to a background level.
@@ -93,7 +95,7 @@ export function autoStartCandidates(x: Float64Array, y: Float64Array, wavelength
   if (firstPass) width = widthFor(Math.min(firstPass.start.background, background0));
   if (!fringes) {
     const fit = linearEnvelopeFit(grid, x[0], dx, center, width, wavelength, sine);
-    return fit ? [fit.start] : [];
+    return fit ? [fit] : [];
   }
 
   // 5. Linear least squares for background, amplitude, visibility, phase at neighbouring frequencies.
@@ -105,11 +107,49 @@ export function autoStartCandidates(x: Float64Array, y: Float64Array, wavelength
     if (fit) results.push(fit);
   }
   results.sort((p, q) => p.rss - q.rss);
-  return results.slice(0, count).map((r) => r.start);
+  return results;
 }
 
-/** Fringe spatial frequency (cycles/m) from the Hann-windowed, 4× zero-padded spectrum; null when no peak. */
-function fringeFrequency(grid: Float64Array, dx: number): { frequency: number; size: number } | null {
+/**
+ * Grid index (fractional, half steps) of best mirror symmetry of max(v − floor, 0): the peak of
+ * its self-convolution (a symmetric pattern about c convolved with itself peaks at 2c).
+ */
+export function symmetryIndex(values: Float64Array, floor: number): number {
+  const n = values.length;
+  const conv = nextPowerOfTwo(2 * n);
+  const er = new Float64Array(conv), ei = new Float64Array(conv);
+  for (let i = 0; i < n; i++) er[i] = Math.max(values[i] - floor, 0);
+  fftInPlace(er, ei);
+  for (let k = 0; k < conv; k++) {
+    const r = er[k], i = ei[k];
+    er[k] = r * r - i * i; ei[k] = 2 * r * i;
+  }
+  fftInPlace(er, ei, true);
+  let best = 0;
+  for (let m = 1; m < 2 * n - 1; m++) if (er[m] > er[best]) best = m;
+  return best / 2;
+}
+
+/**
+ * Candidate fringe frequencies (cycles/m), most likely first: the spectral peak of
+ * {@link fringeFrequency}, then the next strongest local maxima of |F| beyond the envelope's lobe
+ * (at least two unpadded bins apart). An envelope with several side lobes in the window (narrow
+ * slits) can outshine weak fringes in |F|, so the fringe peak may be the second or third maximum;
+ * the caller tells them apart by fitting each.
+ */
+export function fringeFrequencyCandidates(grid: Float64Array, dx: number, count = 4): { frequency: number; size: number }[] {
+  const first = fringeFrequency(grid, dx);
+  const out: { frequency: number; size: number }[] = first ? [first] : [];
+  for (let rank = 1; out.length < count && rank <= 3 * count; rank++) {
+    const more = fringeFrequency(grid, dx, rank);
+    if (!more) break;
+    if (out.every((f) => Math.abs(f.frequency - more.frequency) * more.size * dx > 8)) out.push(more);
+  }
+  return out;
+}
+
+/** Fringe spatial frequency (cycles/m) from the Hann-windowed, 4× zero-padded spectrum (rank > 0: the rank-th strongest local maximum, 0 the strongest); null when no peak. */
+export function fringeFrequency(grid: Float64Array, dx: number, rank = 0): { frequency: number; size: number } | null {
   const n = grid.length;
   const size = nextPowerOfTwo(n) * 4;
   const re = new Float64Array(size), im = new Float64Array(size);
@@ -128,7 +168,22 @@ function fringeFrequency(grid: Float64Array, dx: number): { frequency: number; s
   while (k0 + 4 < half - 1 && power[k0 + 4] >= power[k0] && k0 < 8) k0 += 4;
   while (k0 + 4 < half - 1 && power[k0 + 4] < power[k0]) k0 += 4;
   let peak = -1;
-  for (let k = k0 + 1; k < half - 1; k++) if (peak < 0 || power[k] > power[peak]) peak = k;
+  if (rank > 0) {
+    // The rank-th strongest local maximum (padded bins, above its two neighbours on each side).
+    const maxima: number[] = [];
+    for (let k = k0 + 2; k < half - 2; k++) {
+      if (power[k] > power[k - 1] && power[k] >= power[k + 1] && power[k] > power[k - 2] && power[k] >= power[k + 2]) maxima.push(k);
+    }
+    maxima.sort((p, q) => power[q] - power[p]);
+    if (rank >= maxima.length) return null;
+    peak = maxima[rank];
+    // Only peaks well above the noise floor (median |F| over the upper half of the band, where
+    // the noise dominates; the largest of thousands of noise bins is about 3.5× that median).
+    const upper = Array.from(power.subarray(half >> 1, half)).sort((p, q) => p - q);
+    if (!(power[peak] > 8 * upper[upper.length >> 1])) return null;
+  } else {
+    for (let k = k0 + 1; k < half - 1; k++) if (peak < 0 || power[k] > power[peak]) peak = k;
+  }
   if (peak <= 0 || !(power[peak] > power[peak - 1] && power[peak] >= power[peak + 1])) return null;
   const [a0, b0, c0] = [Math.log(power[peak - 1] + 1e-300), Math.log(power[peak] + 1e-300), Math.log(power[peak + 1] + 1e-300)];
   const denominator = a0 - 2 * b0 + c0;
@@ -159,7 +214,7 @@ function linearEnvelopeFit(y: Float64Array, x0: number, dx: number, center: numb
 }
 
 /** Solves sinc²(β) = r for β in (0, π) by bisection (sinc² is decreasing there). */
-function sincSquaredInverse(r: number): number {
+export function sincSquaredInverse(r: number): number {
   let lo = 0, hi = Math.PI;
   for (let it = 0; it < 60; it++) {
     const mid = 0.5 * (lo + hi);
@@ -169,7 +224,8 @@ function sincSquaredInverse(r: number): number {
   return 0.5 * (lo + hi);
 }
 
-function resampleUniform(x: Float64Array, y: Float64Array, dx: number): Float64Array {
+/** y resampled on the uniform grid x[0] + i·dx (linear interpolation), same length. */
+export function resampleUniform(x: Float64Array, y: Float64Array, dx: number): Float64Array {
   const n = x.length;
   const out = new Float64Array(n);
   let j = 0;
@@ -182,7 +238,8 @@ function resampleUniform(x: Float64Array, y: Float64Array, dx: number): Float64A
   return out;
 }
 
-function movingAverage(y: Float64Array, width: number): Float64Array {
+/** Moving average over `width` samples (shrinking at the ends). */
+export function movingAverage(y: Float64Array, width: number): Float64Array {
   const n = y.length;
   const prefix = new Float64Array(n + 1);
   for (let i = 0; i < n; i++) prefix[i + 1] = prefix[i] + y[i];
@@ -195,8 +252,13 @@ function movingAverage(y: Float64Array, width: number): Float64Array {
   return out;
 }
 
-function linearFringeFit(y: Float64Array, x0: number, dx: number, center: number, separation: number, width: number,
-  wavelength: number, sine: (u: number) => number): { rss: number; start: Record<string, number> } | null {
+/**
+ * Background, amplitude, visibility and phase by linear least squares of
+ * y ≈ b + E·(A + B cos θ + C sin θ), θ = 2π d s/λ, on the uniform grid x0 + i·dx; E is the sinc²
+ * envelope of slit width `width`, or `envelopeAt(u)` (u = x − center) when given.
+ */
+export function linearFringeFit(y: Float64Array, x0: number, dx: number, center: number, separation: number, width: number,
+  wavelength: number, sine: (u: number) => number, envelopeAt?: (u: number) => number): { rss: number; start: Record<string, number> } | null {
   const n = y.length;
   const ata = new Float64Array(16), aty = new Float64Array(4), row = new Float64Array(4);
   let lowest = Infinity;
@@ -204,7 +266,7 @@ function linearFringeFit(y: Float64Array, x0: number, dx: number, center: number
   for (let i = 0; i < n; i++) {
     const s = sine(x0 + i * dx - center);
     const beta = (Math.PI * width * s) / wavelength;
-    const envelope = beta === 0 ? 1 : (Math.sin(beta) / beta) ** 2;
+    const envelope = envelopeAt ? envelopeAt(x0 + i * dx - center) : beta === 0 ? 1 : (Math.sin(beta) / beta) ** 2;
     const theta = (2 * Math.PI * separation * s) / wavelength;
     row[0] = 1; row[1] = envelope; row[2] = envelope * Math.cos(theta); row[3] = envelope * Math.sin(theta);
     for (let a = 0; a < 4; a++) {
@@ -220,7 +282,7 @@ function linearFringeFit(y: Float64Array, x0: number, dx: number, center: number
   for (let i = 0; i < n; i++) {
     const s = sine(x0 + i * dx - center);
     const beta = (Math.PI * width * s) / wavelength;
-    const envelope = beta === 0 ? 1 : (Math.sin(beta) / beta) ** 2;
+    const envelope = envelopeAt ? envelopeAt(x0 + i * dx - center) : beta === 0 ? 1 : (Math.sin(beta) / beta) ** 2;
     const theta = (2 * Math.PI * separation * s) / wavelength;
     const f = background + envelope * (amplitude + b * Math.cos(theta) + c * Math.sin(theta));
     rss += (y[i] - f) ** 2;

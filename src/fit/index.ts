@@ -15,3 +15,4 @@ export * from "./goodness.js";
 export * from "./fringeDetection.js";
 export * from "./fitChecks.js";
 export * from "./optionQuantities.js";
+export * from "./starts/crossSeed.js";

@@ -95,6 +95,25 @@ export interface FitResult {
   flagged: number[];
   /** Goodness-of-fit test (χ² against its distribution when the noise scale is known) and fringe detection; see fit/goodness. */
   goodness: GoodnessOfFit;
+  /** How the global stage went: candidate starts tried, converged, and in agreement with the best (fitProfile only). */
+  starts?: StartsSummary;
+}
+
+/**
+ * The global stage of a fit (see src/fit/starts/search.ts). Two starts reached the "same"
+ * optimum when their objectives differ by at most 1e-3 of one unit of reduced χ² (plus 1e-6 of
+ * the objective) and every free parameter by at most 0.1 of its standard uncertainty (phase
+ * modulo 2π). `agreeing` ≥ 2 confirms the best basin; 1 means only one start found it.
+ */
+export interface StartsSummary {
+  /** Candidate starts the solver was run from. */
+  tried: number;
+  /** Of those, how many converged. */
+  converged: number;
+  /** Of those, how many reached the best optimum (the best included). */
+  agreeing: number;
+  /** Where the candidates came from, e.g. "far-field spectrum", "near-field shadow edges", "given start". */
+  method: string;
 }
 
 /** Progress of a running fit, reported once per solver iteration. */

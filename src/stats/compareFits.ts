@@ -5,7 +5,7 @@
 import { InvalidArgumentError } from "../errors.js";
 import type { FitResult } from "../fit/types.js";
 import type { Profile } from "../profile.js";
-import type { CompareOptions, ComparisonEntry, ComparisonJson, ComparisonResult, Criterion, LabelledEntry, ModelComparisonRow } from "./comparisonTypes.js";
+import type { CompareOptions, ComparisonEntry, ComparisonJson, ComparisonResult, Criterion, LabelledEntry, ModelComparisonRow, UnreliableFit } from "./comparisonTypes.js";
 import { akaikeWeights, fitCriteria } from "./criteria.js";
 import { profileFingerprint } from "./fingerprint.js";
 import { isNestedByParameters, knownNesting, nestedTest, type NestedTestResult } from "./nested.js";
@@ -59,15 +59,36 @@ export function compareFits(fits: readonly (FitResult | ComparisonEntry)[], opti
   rows.sort((a, b) => a[deltaKey] - b[deltaKey] || a.k - b.k);
   const tests = nestedPairs(entries, options.nested ?? []);
   const warnings = collectWarnings(rows, entries);
+  const unreliable = unreliableFits(entries);
   return {
     criterion,
     noise: entries[0].fit.noise,
     rows,
-    preferred: rows[0].label,
+    preferred: unreliable.length > 0 ? null : rows[0].label,
+    unreliable,
     tests,
     warnings,
-    verdict: writeVerdict(rows, tests, warnings, criterion, alpha),
+    verdict: writeVerdict(rows, tests, warnings, criterion, alpha, unreliable),
   };
+}
+
+/** Warning codes that mark a fit as plainly failed: a comparison with it states no preference. */
+export const FAILED_FIT_CODES: readonly string[] = ["poor-fit", "no-fringes", "fringe-aliased"];
+
+/**
+ * The fits of a comparison that plainly failed: not converged (with the solver's reason), or a
+ * warning whose code is in {@link FAILED_FIT_CODES} (with its message). Ranking such a fit against
+ * the others would compare a model with a failure to find its optimum, so no preference is stated.
+ */
+export function unreliableFits(entries: readonly { fit: FitResult; label: string }[]): UnreliableFit[] {
+  const out: UnreliableFit[] = [];
+  for (const { fit, label } of entries) {
+    const reasons: string[] = [];
+    if (!fit.converged) reasons.push(`did not converge (${fit.message})`);
+    for (const w of fit.warnings) if (FAILED_FIT_CODES.includes(w.code)) reasons.push(`${w.code}: ${w.message}`);
+    if (reasons.length > 0) out.push({ label, reasons });
+  }
+  return out;
 }
 
 /** The `fringekit compare --json` document of a comparison. */
@@ -91,6 +112,7 @@ export function comparisonJson(result: ComparisonResult): ComparisonJson {
       residualsStructured: r.diagnostics.structured,
     })),
     preferred: result.preferred,
+    unreliable: result.unreliable,
     criterion: result.criterion,
     tests: result.tests,
     warnings: result.warnings,

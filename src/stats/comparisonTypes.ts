@@ -56,14 +56,22 @@ export interface ComparisonResult {
   noise: FitResult["noise"];
   /** Rows sorted best first by the criterion (fits that did not converge last). */
   rows: ModelComparisonRow[];
-  /** Label of the preferred fit. */
-  preferred: string;
+  /** Label of the preferred fit; null when some fit is unreliable (then no preference is stated). */
+  preferred: string | null;
+  /** Fits that plainly failed (did not converge, or warned poor-fit / no-fitted-fringes / aliasing), with why. */
+  unreliable: UnreliableFit[];
   /** Nested-model tests for every pair found nested or asserted. */
   tests: NestedTestResult[];
   /** Short warnings, also woven into the verdict. */
   warnings: string[];
   /** Plain-words conclusion with the numbers behind it. */
   verdict: string;
+}
+
+/** A fit a comparison cannot rank, and why (plain words). */
+export interface UnreliableFit {
+  label: string;
+  reasons: string[];
 }
 
 /** Shape of `fringekit compare --json`. */
@@ -74,7 +82,8 @@ export interface ComparisonJson {
     /** The residual diagnostics found structure (see residualDiagnostics). */
     residualsStructured: boolean;
   })[];
-  preferred: string;
+  preferred: string | null;
+  unreliable: UnreliableFit[];
   criterion: Criterion;
   tests: NestedTestResult[];
   warnings: string[];

@@ -4,7 +4,7 @@
  * the models are indistinct, above 10 the worse one has essentially no support.
  */
 import { chiSquaredSurvival } from "./chiSquared.js";
-import type { Criterion, LabelledEntry, ModelComparisonRow } from "./comparisonTypes.js";
+import type { Criterion, LabelledEntry, ModelComparisonRow, UnreliableFit } from "./comparisonTypes.js";
 import { farFieldValidity, isFarFieldModel } from "./farField.js";
 import type { NestedTestResult } from "./nested.js";
 import { pText } from "./residualDiagnostics.js";
@@ -51,13 +51,26 @@ function strength(delta: number): string {
   return "decisive preference";
 }
 
-/** The verdict: which model, by how much, how sure, the nested tests, residuals and warnings; `alpha` is the significance level (dimensionless). */
-export function writeVerdict(rows: ModelComparisonRow[], tests: NestedTestResult[], warnings: string[], criterion: Criterion, alpha: number): string {
+/**
+ * The verdict: which model, by how much, how sure, the nested tests, residuals and warnings;
+ * `alpha` is the significance level (dimensionless). When some fit is unreliable (see
+ * compareFits' unreliableFits) no preference is stated: the verdict names each unreliable fit and
+ * why, and gives the criteria only as numbers.
+ */
+export function writeVerdict(rows: ModelComparisonRow[], tests: NestedTestResult[], warnings: string[], criterion: Criterion, alpha: number, unreliable: readonly UnreliableFit[] = []): string {
   const name = criterion.toUpperCase().replace("AICC", "AICc");
   const deltaKey = ({ aic: "deltaAic", aicc: "deltaAicc", bic: "deltaBic" } as const)[criterion];
   const best = rows[0];
   const parts: string[] = [];
   const ranked = rows.filter((r) => r.converged);
+  if (unreliable.length > 0) {
+    const which = unreliable.map((u) => `${u.label} (${u.reasons.join("; ")})`).join("; ");
+    parts.push(`No model is preferred: the fit of ${which} ${unreliable.length > 1 ? "are" : "is"} unreliable, and a comparison with a failed fit says nothing about the models. ` +
+      "Fix that fit first (starting values, model, mask or geometry) and compare again.");
+    parts.push(`For the record, ${name} and reduced χ²: ${rows.map((r) => `${r.label} ${Number.isFinite(r[criterion]) ? r[criterion].toFixed(1) : "n/a"}, ${r.reducedChi2.toFixed(3)}`).join("; ")}.`);
+    if (warnings.length) parts.push(`Warning: ${warnings.join("; ")}.`);
+    return parts.join(" ");
+  }
   if (ranked.length === 1) {
     parts.push(`Only ${best.label} can be ranked (${name} ${best[criterion].toFixed(1)}, reduced χ² ${best.reducedChi2.toFixed(3)}).`);
   } else {

@@ -130,7 +130,8 @@ describe("comparisonReport(fits, options)", () => {
     const rows = rankFits([{ label: "far", result: a }, { label: "near", result: stuck }]);
     expect(rows.map((r) => [r.label, r.converged, r.weight])).toEqual([["far", true, 1], ["near", false, 0]]);
     const verdict = compareFits([{ fit: a, label: "far" }, { fit: stuck, label: "near" }]);
-    expect(verdict.preferred).toBe(rows[0].label);
+    expect(verdict.rows[0].label).toBe(rows[0].label);
+    expect(verdict.preferred).toBeNull(); // a comparison with a failed fit states no preference
     const table = comparisonTable(verdict);
     expect(table.rows.map((r) => ("cells" in r ? r.cells[0] : r.section))).toEqual(["far", "near (not converged)"]);
     const second = table.rows[1];

@@ -57,12 +57,31 @@ describe("compareFits", () => {
     expect(() => compareFits([{ fit: far, profile }, { fit: near, profile: other }])).toThrow(/data fingerprints [0-9a-f]{16} vs [0-9a-f]{16}/);
     expect(() => compareFits([])).toThrow(/non-empty array/);
   });
-  it("compareFits(fits) leaves non-converged fits out of the ranking and says so", () => {
-    const failed = { ...near, converged: false };
+  it("compareFits(fits) leaves non-converged fits out of the ranking, says so, and states no preference", () => {
+    const failed = { ...near, converged: false, message: "stopped at the evaluation limit before converging" };
     const result = compareFits([failed, far], { profile });
-    expect(result.preferred).toBe("two-slit");
+    expect(result.preferred).toBeNull();
+    expect(result.unreliable).toEqual([{ label: "two-slit-fresnel", reasons: ["did not converge (stopped at the evaluation limit before converging)"] }]);
     expect(result.rows[1].weight).toBe(0);
     expect(result.verdict).toMatch(/two-slit-fresnel did not converge/);
+    expect(result.verdict).toMatch(/^No model is preferred: the fit of two-slit-fresnel \(did not converge/);
+    expect(result.verdict).not.toMatch(/is preferred over/);
+  });
+  it("compareFits(fits) states no preference when a converged fit warns poor-fit, no-fringes or fringe-aliased, and names it", () => {
+    // The issue's case: a far-field fit of a near-field line far from the data (χ²/ν in the thousands).
+    for (const code of ["poor-fit", "no-fringes", "fringe-aliased"]) {
+      const bad = { ...far, warnings: [{ code, message: `the model does not describe these data (${code} test)` }] };
+      const result = compareFits([bad, near], { profile });
+      expect(result.preferred, code).toBeNull();
+      expect(result.unreliable.map((u) => u.label)).toEqual(["two-slit"]);
+      expect(result.unreliable[0].reasons[0]).toBe(`${code}: the model does not describe these data (${code} test)`);
+      expect(result.verdict).toMatch(new RegExp(`^No model is preferred: the fit of two-slit \\(${code}: `));
+      expect(result.verdict).not.toMatch(/is preferred over|decisive/);
+      expect(comparisonJson(result).preferred).toBeNull();
+    }
+    // Another warning (a parameter at its bound) is no failure: the preference stands.
+    const atBound = { ...far, warnings: [{ code: "at-bound", message: "visibility is at its upper bound 1" }] };
+    expect(compareFits([atBound, near], { profile }).preferred).toBe("two-slit-fresnel");
   });
   it("comparisonJson(result) has the compare --json shape", () => {
     const json = comparisonJson(compareFits([far, near], { profile }));
