@@ -1,0 +1,15 @@
+"""Executes a notebook on the fringekit kernel with nbclient and writes the executed copy.
+Usage: runNotebook.py IN.ipynb OUT.ipynb WORKDIR (the kernel's working folder)."""
+import sys
+
+import nbformat
+from nbclient import NotebookClient
+
+source, target, workdir = sys.argv[1:4]
+nb = nbformat.read(source, as_version=4)
+client = NotebookClient(nb, kernel_name="fringekit", timeout=240, resources={"metadata": {"path": workdir}})
+try:
+    client.execute()
+finally:
+    nbformat.write(nb, target)
+print("executed", len(nb.cells), "cells")
