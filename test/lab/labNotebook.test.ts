@@ -3,7 +3,8 @@
 // prebuilt lab extension loaded as JupyterLab loads it, on Debian's jupyter-server running the
 // fringekit kernel. A notebook on the demo data is opened, run with "Run All", and its four
 // widgets are checked; a keyboard slider move redraws; Fit updates the view and `ex.result` in
-// the kernel; the saved notebook, opened again, restores the widgets from its saved state.
+// the kernel; the saved notebook, opened again, restores the widgets from its saved state. Then
+// the demo notebook 01-first-fit.ipynb runs the same way.
 import { spawn, spawnSync, type ChildProcess } from "node:child_process";
 import { randomBytes } from "node:crypto";
 import { cpSync, existsSync, mkdirSync, mkdtempSync, readFileSync, rmSync, symlinkSync, writeFileSync } from "node:fs";
@@ -42,6 +43,45 @@ const cells = [
   'coherenceScan(scan, disc, discModel, { sourceLabel: "uniform disc" }).display();',
 ];
 
+type Manifest = { jupyterlab: { _build?: { load: string } } };
+function readManifest(dir: string): Manifest | null {
+  try {
+    return JSON.parse(readFileSync(path.join(dir, "package.json"), "utf8")) as Manifest;
+  } catch {
+    return null;
+  }
+}
+/** A finished build: the manifest names its remote entry (written last) and that file exists. */
+function complete(dir: string): boolean {
+  const load = readManifest(dir)?.jupyterlab._build?.load;
+  return load !== undefined && existsSync(path.join(dir, load));
+}
+
+/**
+ * A private copy of the prebuilt extension (widgets/dist/labextension). test/widgets/labExtension
+ * rebuilds that folder in its own beforeAll (deleting it first), possibly while this test runs, so
+ * this test serves a copy. `npm test` builds it beforehand (`npm run build:lab`); under npm test
+ * a missing or half-written folder means the other test is rebuilding it: wait for it. Run alone,
+ * this test builds it when it is missing.
+ */
+async function snapshotLabExtension(dest: string): Promise<string> {
+  if (!complete(labExtensionDir) && process.env.npm_lifecycle_event !== "test") await buildLabExtension();
+  const deadline = Date.now() + 15 * 60_000;
+  for (;;) {
+    if (complete(labExtensionDir)) {
+      rmSync(dest, { recursive: true, force: true });
+      try {
+        cpSync(labExtensionDir, dest, { recursive: true });
+      } catch {
+        // deleted while copying: a rebuild started; wait for it
+      }
+      if (complete(dest)) return dest;
+    }
+    if (Date.now() > deadline) throw new Error(`no finished JupyterLab extension in ${labExtensionDir} after 15 minutes; build it with npm run build:lab`);
+    await new Promise((r) => setTimeout(r, 2000));
+  }
+}
+
 async function freePort(): Promise<number> {
   const server = createServer();
   await new Promise<void>((resolve) => server.listen(0, "127.0.0.1", resolve));
@@ -59,6 +99,7 @@ describe.skipIf(why)("JupyterLab notebook component + jupyterlab-manager + fring
   let jupyterLog = "";
   let pageOrigin = "";
   let token = "";
+  let extensionDir = "";
   const pageErrors: string[] = [];
 
   beforeAll(async () => {
@@ -66,6 +107,7 @@ describe.skipIf(why)("JupyterLab notebook component + jupyterlab-manager + fring
     const root = path.join(tmp, "root");
     mkdirSync(root);
     cpSync(path.join(repoRoot, "notebooks-demo/data"), path.join(root, "data"), { recursive: true });
+    cpSync(path.join(repoRoot, "notebooks-demo/01-first-fit.ipynb"), path.join(root, "01-first-fit.ipynb"));
     // fringekit as an installed dependency of the notebook folder.
     mkdirSync(path.join(root, "node_modules"));
     symlinkSync(repoRoot, path.join(root, "node_modules", "fringekit"), "dir");
@@ -74,10 +116,8 @@ describe.skipIf(why)("JupyterLab notebook component + jupyterlab-manager + fring
       metadata: { kernelspec: { name: "fringekit", display_name: "TypeScript (fringekit)", language: "typescript" } },
       cells: cells.map((source) => ({ cell_type: "code", metadata: {}, source, outputs: [], execution_count: null })),
     }));
-    type Manifest = { jupyterlab: { _build?: { load: string } } };
-    const readManifest = (): Manifest | null => existsSync(path.join(labExtensionDir, "package.json")) ? JSON.parse(readFileSync(path.join(labExtensionDir, "package.json"), "utf8")) : null;
-    if (!readManifest()?.jupyterlab._build) await buildLabExtension(); // the build writes _build last
-    const manifest = readManifest()!;
+    extensionDir = await snapshotLabExtension(path.join(tmp, "labextension"));
+    const manifest = readManifest(extensionDir)!;
     const page = await buildLabPage(path.join(tmp, "page"));
 
     pageServer = createServer((req, res) => {
@@ -92,8 +132,8 @@ describe.skipIf(why)("JupyterLab notebook component + jupyterlab-manager + fring
         res.writeHead(200, { "content-type": url.pathname.endsWith(".js") ? "text/javascript" : "text/css" }).end(readFileSync(url.pathname.endsWith(".js") ? page.script : page.css));
         return;
       }
-      const file = path.join(labExtensionDir, path.normalize(url.pathname.replace(/^\/ext\//, "/")).replace(/^([/\\])+/, ""));
-      if (!url.pathname.startsWith("/ext/") || !file.startsWith(labExtensionDir) || !existsSync(file)) {
+      const file = path.join(extensionDir, path.normalize(url.pathname.replace(/^\/ext\//, "/")).replace(/^([/\\])+/, ""));
+      if (!url.pathname.startsWith("/ext/") || !file.startsWith(extensionDir) || !existsSync(file)) {
         res.writeHead(404).end();
         return;
       }
@@ -196,6 +236,22 @@ describe.skipIf(why)("JupyterLab notebook component + jupyterlab-manager + fring
     await page.waitForFunction(() => document.querySelectorAll(".jp-OutputArea-output .fk-root .js-plotly-plot .main-svg").length >= 4, undefined, { timeout: 120_000 });
     await page.waitForSelector(`${host}[data-fit-state=done]`, { timeout: 60_000 });
     await page.screenshot({ path: path.join(outputDir, "lab-reopened.png"), fullPage: true });
+    expect(pageErrors).toEqual([]);
+  }, 900_000);
+
+  it("the demo notebook 01-first-fit.ipynb runs with Run All; its explorer and uncertainty widgets draw", async () => {
+    const page = browser!.page;
+    const ext = new URL(page.url()).searchParams.get("ext")!;
+    await page.evaluate("labTest.close()");
+    await page.evaluate(`labTest.open("01-first-fit.ipynb", ${JSON.stringify({ name: MODULE_NAME, remoteEntry: ext })})`);
+    const ran = await page.evaluate("labTest.runAll()");
+    const report = await page.evaluate("labTest.cellReport()") as { count: number | null; errors: string[] }[];
+    expect(report.flatMap((c, i) => c.errors.map((e) => `code cell ${i + 1}: ${e}`))).toEqual([]);
+    expect(ran).toBe(true);
+    // The notebook's last cell asserts its results against the simulation's truths (it would raise above).
+    await page.waitForFunction(() => document.querySelectorAll(".jp-OutputArea-output .fk-root .js-plotly-plot .main-svg").length >= 2, undefined, { timeout: 180_000 });
+    const roots = page.locator(".jp-OutputArea-output .fk-root");
+    for (let i = 0; i < (await roots.count()); i++) await roots.nth(i).screenshot({ path: path.join(outputDir, `lab-demo-widget-${i + 1}.png`) });
     expect(pageErrors).toEqual([]);
   }, 900_000);
 });
