@@ -10,6 +10,7 @@ import path from "node:path";
 import { fileURLToPath } from "node:url";
 import { DataError, InvalidArgumentError } from "../../src/errors.js";
 import { escapeHtml } from "../../src/report/escape.js";
+import { createNotebookProse } from "./notebookMarkdown.js";
 
 const STATE_MIME = "application/vnd.jupyter.widget-state+json";
 const VIEW_MIME = "application/vnd.jupyter.widget-view+json";
@@ -62,12 +63,14 @@ export function notebookHtml(notebook: Record<string, any>, renderer: string, ti
   const state = notebook.metadata?.widgets?.[STATE_MIME] as { state?: Record<string, unknown> } | undefined;
   const models = new Set(Object.keys(state?.state ?? {}));
   const cells = (notebook.cells ?? []) as Record<string, any>[];
+  const prose = createNotebookProse(); // Markdown, math, code colours, contents (notebookMarkdown.ts)
+  const language = String(notebook.metadata?.language_info?.name ?? notebook.metadata?.kernelspec?.language ?? "");
   const body = cells.map((cell) => {
     const source = text(cell.source);
-    if (cell.cell_type === "markdown") return `<div class="fk-md"><pre>${escapeHtml(source)}</pre></div>`;
+    if (cell.cell_type === "markdown") return `<div class="fk-md">${prose.markdown(source)}</div>`;
     if (cell.cell_type !== "code") return "";
     const outputs = ((cell.outputs ?? []) as Output[]).map((o) => renderOutput(o, models)).join("\n");
-    return `<div class="fk-cell"><pre class="fk-code">${escapeHtml(source)}</pre>${outputs}</div>`;
+    return `<div class="fk-cell">${prose.code(source, language)}${outputs}</div>`;
   }).join("\n");
   return `<!doctype html>
 <html lang="en"><head><meta charset="utf-8"><meta name="viewport" content="width=device-width, initial-scale=1">
@@ -78,12 +81,12 @@ body { font: 14px/1.45 system-ui, sans-serif; color: #1e293b; max-width: 1180px;
 pre.fk-code { background: #f8fafc; border-left: 3px solid #94a3b8; padding: 8px 10px; overflow-x: auto; font-size: 12.5px; }
 pre.fk-stream { margin: 4px 0; font-size: 12.5px; }
 pre.fk-error { color: #b91c1c; }
-.fk-md pre { white-space: pre-wrap; font: inherit; }
 img { max-width: 100%; }
+${prose.css()}
 </style>
 ${state ? `<script type="${STATE_MIME}">${scriptSafe(JSON.stringify(state))}</script>` : ""}
 </head><body>
-${body}
+${prose.tableOfContents()}${body}
 <script id="fringekit-widget-renderer">${scriptSafe(renderer)}</script>
 </body></html>
 `;
