@@ -36,19 +36,19 @@ export function batchRow(path: string, modelId: string, args: ParsedArgs): Batch
 }
 
 /**
- * Rows → CSV: file, status, message, n, reducedChi2, aic, bic, then value and stderr (SI) of
+ * Rows → CSV: file, status, message, n, reducedChi2, aic, bic, then value and uncertainty (SI) of
  * every parameter.
  * @param rows batch rows in input order
  */
 export function batchCsv(rows: readonly BatchRow[]): string {
   const names: string[] = [];
   for (const row of rows) for (const name of Object.keys(row.fit?.params ?? {})) if (!names.includes(name)) names.push(name);
-  const header = ["file", "status", "message", "n", "reducedChi2", "aic", "bic", ...names.flatMap((n) => [n, `${n}_stderr`])];
+  const header = ["file", "status", "message", "n", "reducedChi2", "aic", "bic", ...names.flatMap((n) => [n, `${n}_uncertainty`])];
   const lines = [header.map(csvCell).join(",")];
   for (const row of rows) {
     const s = row.fit?.stats;
     const cells: (string | number | null | undefined)[] = [row.file, row.status, row.message, s?.n, s?.reducedChi2, s?.aic, s?.bic];
-    for (const name of names) cells.push(row.fit?.params[name]?.value, row.fit?.params[name]?.stderr);
+    for (const name of names) cells.push(row.fit?.params[name]?.value, row.fit?.params[name]?.uncertainty);
     lines.push(cells.map((c) => csvCell(c === undefined || c === null ? "" : String(c))).join(","));
   }
   return `${lines.join("\n")}\n`;

@@ -54,7 +54,7 @@ export class CoherenceScanWidget {
     // The paper figure's grid, so the widget's export is the figure the headless exporter makes.
     const grid = coherenceScanGrid(scan.x, options.curvePoints ?? 300);
     const band = confidenceBand(model, result, grid, options.level ?? 0.95);
-    this.quantities = result.parameters.filter((p) => !p.fixed).map((p) => ({ name: p.name, unit: p.unit, value: p.value, stderr: Number.isFinite(p.stderr) ? p.stderr : null }));
+    this.quantities = result.parameters.filter((p) => !p.fixed).map((p) => ({ name: p.name, unit: p.unit, value: p.value, uncertainty: Number.isFinite(p.uncertainty) ? p.uncertainty : null }));
     this.widget = new WidgetModel<ScanState>(widgetIdentity("CoherenceScan"), {
       title: options.title ?? "Coherence scan",
       separation: scan.x, visibility: scan.y, visibility_err: scan.sigma ?? null,
@@ -67,7 +67,7 @@ export class CoherenceScanWidget {
 
   /** Widget view plus text/plain and text/html with the fitted source quantities. */
   [MIME_BUNDLE](): MimeBundle {
-    const facts = this.quantities.map((q) => `${q.name} = ${q.value.toPrecision(6)} ± ${q.stderr === null ? "?" : q.stderr.toPrecision(2)} ${q.unit}`);
+    const facts = this.quantities.map((q) => `${q.name} = ${q.value.toPrecision(6)} ± ${q.uncertainty === null ? "?" : q.uncertainty.toPrecision(2)} ${q.unit}`);
     return { ...this.widget.viewBundle(), ...fallbackBundle("Coherence scan", facts, null) };
   }
 

@@ -64,7 +64,7 @@ export class UncertaintyWidget {
       title: options.title ?? "Uncertainty",
       parameters: this.intervals.map((iv) => {
         const p = result.parameters.find((q) => q.name === iv.parameter)!;
-        return { name: iv.parameter, unit: iv.unit, best: iv.value, stderr: Number.isFinite(p.stderr) ? p.stderr : null,
+        return { name: iv.parameter, unit: iv.unit, best: iv.value, uncertainty: Number.isFinite(p.uncertainty) ? p.uncertainty : null,
           interval: [iv.openLower ? null : iv.lower, iv.openUpper ? null : iv.upper] as [number | null, number | null] };
       }),
       grid: { data: grid, shape: [names.length, points] },

@@ -24,7 +24,7 @@ export interface FitParameter {
   /** Best-fit value (SI). */
   value: number;
   /** Standard uncertainty (SI); 0 for fixed parameters, Infinity when it cannot be estimated. */
-  stderr: number;
+  uncertainty: number;
   fixed: boolean;
   /** Expression this parameter is tied to, or null. */
   tied: string | null;

@@ -6,7 +6,7 @@ import { expectClose } from "./python.js";
 describe("farFieldValidity", () => {
   const geometry = { amplitude: 1, center: 0, separation: 0.5e-3, width: 0.1e-3, wavelength: 632.8e-9, distance: 1 };
   it("farFieldValidity(fit) computes a²/(λL) with its uncertainty and passes a far-field bench", () => {
-    const fit = fakeFit({ modelId: "two-slit", free: ["amplitude", "width"], values: geometry, stderr: { width: 1e-6 }, logLikelihood: 0, chi2: 1, n: 10 });
+    const fit = fakeFit({ modelId: "two-slit", free: ["amplitude", "width"], values: geometry, uncertainty: { width: 1e-6 }, logLikelihood: 0, chi2: 1, n: 10 });
     const check = farFieldValidity(fit, { distance: { value: 1, uncertainty: 1e-3 } });
     // By hand: (1e-4)²/(632.8e-9 · 1) = 0.015803; relative u = 2 u_a/a ⊕ u_L/L = 0.02 ⊕ 0.001.
     expectClose(check.fresnelNumber.value, 1e-8 / 632.8e-9, 1e-12, "N_F");
@@ -32,7 +32,7 @@ describe("farFieldValidity", () => {
 
 describe("sourceSize", () => {
   const values = { visibility: 0.95, diameter: 1e-3, sourceDistance: 2, wavelength: 550e-9 };
-  const fit = fakeFit({ modelId: "coherence-disc", free: ["visibility", "diameter"], values, stderr: { visibility: 0.01, diameter: 2e-5 }, logLikelihood: 0, chi2: 8, n: 10 });
+  const fit = fakeFit({ modelId: "coherence-disc", free: ["visibility", "diameter"], values, uncertainty: { visibility: 0.01, diameter: 2e-5 }, logLikelihood: 0, chi2: 8, n: 10 });
   it("sourceSize(fit, calibration) scales D with the calibrated λR and adds their uncertainties", () => {
     const r = sourceSize(fit, { sourceDistance: { value: 2.02, uncertainty: 0.01 }, wavelength: { value: 550e-9, uncertainty: 0 } });
     // By hand: D = 1 mm × 2.02/2; relative u = 0.02 ⊕ 0.01/2.02.

@@ -161,9 +161,9 @@ run("widget export buttons save the paper figure (Chromium)", () => {
     expect([...files.keys()].sort()).toEqual(["fringekit-uncertainty-1.svg", "fringekit-uncertainty-2.svg"]);
     const s = (await h.page.evaluate(`(() => { const m = fk.views.get(${v}).model; return { params: m.get("parameters"), grid: Array.from(m.get("grid").data), delta: Array.from(m.get("delta").data),
       names: m.get("free_names"), corr: Array.from(m.get("correlation").data) }; })()`)) as
-      { params: { name: string; unit: string; best: number; stderr: number }[]; grid: number[]; delta: number[]; names: string[]; corr: number[] };
+      { params: { name: string; unit: string; best: number; uncertainty: number }[]; grid: number[]; delta: number[]; names: string[]; corr: number[] };
     const m = s.grid.length / s.params.length;
-    const curves = s.params.map((p, i) => ({ name: p.name, unit: p.unit, best: p.best, stderr: p.stderr,
+    const curves = s.params.map((p, i) => ({ name: p.name, unit: p.unit, best: p.best, uncertainty: p.uncertainty,
       values: Float64Array.from(s.grid.slice(i * m, (i + 1) * m)), deltaObjective: Float64Array.from(s.delta.slice(i * m, (i + 1) * m)) }));
     await expectSame(files.get("fringekit-uncertainty-1.svg")!, profileLikelihoodFigure(curves));
     await expectSame(files.get("fringekit-uncertainty-2.svg")!, correlationFigure({ modelId: "", freeNames: s.names, correlation: Float64Array.from(s.corr) }));

@@ -44,7 +44,7 @@ describe("preview", () => {
     expect(displayUnitFor("counts", 1e4)).toEqual({ label: "counts", factor: 1 });
   });
 
-  it("formatWithUncertainty(value, stderr) rounds the uncertainty to two significant digits", () => {
+  it("formatWithUncertainty(value, uncertainty) rounds the uncertainty to two significant digits", () => {
     // Two significant digits on the uncertainty, value to the same decimal: common practice (GUM 7.2.6).
     expect(formatWithUncertainty(500.3149, 0.8712)).toBe("500.31 ± 0.87");
     expect(formatWithUncertainty(0.84973, 0.0021)).toBe("0.8497 ± 0.0021");

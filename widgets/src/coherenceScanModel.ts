@@ -8,7 +8,7 @@ export interface ScanQuantity {
   name: string;
   unit: string;
   value: number;
-  stderr: number | null;
+  uncertainty: number | null;
 }
 
 /**

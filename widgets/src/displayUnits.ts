@@ -45,17 +45,17 @@ export function formatNumber(value: number, digits = 5): string {
  * "value ± uncertainty" with the uncertainty rounded to two significant digits and the value
  * to the same decimal place (common practice in reporting measurements).
  */
-export function formatWithUncertainty(value: number, stderr: number): string {
-  if (!(stderr > 0) || !Number.isFinite(stderr)) {
-    return stderr === Infinity ? `${formatNumber(value)} ± ∞` : formatNumber(value);
+export function formatWithUncertainty(value: number, uncertainty: number): string {
+  if (!(uncertainty > 0) || !Number.isFinite(uncertainty)) {
+    return uncertainty === Infinity ? `${formatNumber(value)} ± ∞` : formatNumber(value);
   }
-  const exponent = Math.floor(Math.log10(stderr)) - 1;
+  const exponent = Math.floor(Math.log10(uncertainty)) - 1;
   const decimals = Math.max(0, -exponent);
   if (decimals > 8 || Math.abs(value) >= 1e7) {
-    return `${value.toExponential(3)} ± ${stderr.toExponential(1)}`;
+    return `${value.toExponential(3)} ± ${uncertainty.toExponential(1)}`;
   }
   const scale = 10 ** exponent;
-  const roundedErr = Math.round(stderr / scale) * scale;
+  const roundedErr = Math.round(uncertainty / scale) * scale;
   const roundedValue = Math.round(value / scale) * scale;
   return `${roundedValue.toFixed(decimals)} ± ${roundedErr.toFixed(decimals)}`;
 }

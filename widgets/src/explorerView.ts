@@ -448,7 +448,7 @@ export class ExplorerView extends FigureView {
       const unit = this.rows.get(p.name)?.unit ?? displayUnitFor(p.unit, p.value);
       const shown = p.fixed
         ? `${formatNumber(p.value * unit.factor)} (fixed)`
-        : p.stderr === null ? `${formatNumber(p.value * unit.factor)} ± ?` : formatWithUncertainty(p.value * unit.factor, p.stderr * unit.factor);
+        : p.uncertainty === null ? `${formatNumber(p.value * unit.factor)} ± ?` : formatWithUncertainty(p.value * unit.factor, p.uncertainty * unit.factor);
       return h("tr", { "data-param": p.name }, h("td", {}, p.name), h("td", {}, shown + (p.atBound ? ` ⚑ ${p.atBound}` : "")), h("td", {}, unit.label));
     });
     const s = result.statistics;

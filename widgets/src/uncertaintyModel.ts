@@ -8,7 +8,7 @@ export interface ProfiledParameter {
   name: string;
   unit: string;
   best: number;
-  stderr: number | null;
+  uncertainty: number | null;
   /** Profile-likelihood interval [lower, upper] (SI); null ends where the curve never crossed the threshold. */
   interval: [number | null, number | null];
 }

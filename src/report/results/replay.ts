@@ -115,10 +115,10 @@ export function compareResults(
     }
     if (p.fixed !== q.fixed) add(`${p.name} fixed`, p.fixed, q.fixed, "the same");
     // A fitted value may move by a small fraction of its uncertainty; a fixed one only by rounding.
-    const valueTol = Number.isFinite(p.stderr) && p.stderr > 0 ? tol.fraction * p.stderr : tol.relative * Math.abs(p.value);
+    const valueTol = Number.isFinite(p.uncertainty) && p.uncertainty > 0 ? tol.fraction * p.uncertainty : tol.relative * Math.abs(p.value);
     if (!within(p.value, q.value, valueTol)) add(`${p.name} value`, p.value, q.value, `± ${valueTol.toPrecision(2)}`);
-    const seTol = Math.max(tol.stderrRelative, tol.relative) * Math.abs(p.stderr);
-    if (!within(p.stderr, q.stderr, seTol)) add(`${p.name} standard error`, p.stderr, q.stderr, `± ${seTol.toPrecision(2)}`);
+    const seTol = Math.max(tol.stderrRelative, tol.relative) * Math.abs(p.uncertainty);
+    if (!within(p.uncertainty, q.uncertainty, seTol)) add(`${p.name} standard error`, p.uncertainty, q.uncertainty, `± ${seTol.toPrecision(2)}`);
   }
   for (const key of ["chi2", "logLikelihood", "aic", "bic"] as const) {
     const a = recorded.statistics[key];

@@ -177,8 +177,22 @@ export function parseResults(text: string, source = "results file"): ResultsDocu
   } catch (error) {
     throw new DataError(source, (error as Error).message, "the file is damaged; write it again from the original result");
   }
+  upgradeOldFields(doc);
   checkDocument(doc, source);
   return doc;
+}
+
+/** Files written before the rename call the standard uncertainty `stderr`; read it as `uncertainty`. */
+function upgradeOldFields(doc: ResultsDocument): void {
+  for (const fit of Array.isArray(doc.fits) ? doc.fits : []) {
+    for (const p of Array.isArray(fit?.result?.parameters) ? fit.result.parameters : []) {
+      const old = p as unknown as { stderr?: number; uncertainty?: number };
+      if (old.uncertainty === undefined && typeof old.stderr === "number") {
+        old.uncertainty = old.stderr;
+        delete old.stderr;
+      }
+    }
+  }
 }
 
 /** The profile embedded in a results document, or null when the data must come from its file. */
