@@ -2,7 +2,7 @@
  * One batch row: fit one file and report its status, never throwing (a bad file is a row
  * with status "error" and the one-line message).
  */
-import { FringekitError } from "../src/index.js";
+import { FringekitError } from "../src/advanced.js";
 import { fitFile } from "./commands/fit.js";
 import { fitJson, type FitJson } from "./fitJson.js";
 import { notConvergedText } from "./fitSettings.js";

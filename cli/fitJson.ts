@@ -2,7 +2,7 @@
  * The JSON object `fringekit fit --json` prints: values in SI units; an uncertainty that could
  * not be estimated (Infinity) is written as null because JSON has no infinity.
  */
-import type { FitResult, Provenance } from "../src/index.js";
+import type { FitResult, Provenance } from "../src/advanced.js";
 import type { AssumedDefault } from "./fitSettings.js";
 
 /** The documented shape of `fringekit fit --json`. */

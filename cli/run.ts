@@ -2,7 +2,7 @@
  * The `fringekit` command line: dispatches to a subcommand, prints one-line errors (no stack
  * traces) and returns 0 (success), 1 (fit did not converge, result written) or 2 (bad input/usage).
  */
-import { FringekitError } from "../src/index.js";
+import { FringekitError } from "../src/advanced.js";
 import { batchCommand } from "./commands/batch.js";
 import { compareCommand } from "./commands/compare.js";
 import { fitCommand } from "./commands/fit.js";

@@ -1,5 +1,5 @@
 /** `fringekit compare FILE --models A,B,... [fit settings] [--json]`. */
-import { compareFits, comparisonDocument, comparisonJson, comparisonTable, fitProfile, getModel, stringifyResults, tableToText, type FitResult } from "../../src/index.js";
+import { compareFits, comparisonDocument, comparisonJson, comparisonTable, fitProfile, getModel, stringifyResults, tableToText, type FitResult } from "../../src/advanced.js";
 import { assumedDefaults, assumedDefaultsNote, fitSettings, notConvergedSummary, type AssumedDefault } from "../fitSettings.js";
 import { writeOutputFile } from "../files.js";
 import { loadData } from "../loadData.js";

@@ -4,7 +4,10 @@ export * from "./status.js";
 export * from "./leastSquares.js";
 export * from "./formula.js";
 export * from "./formulaModel.js";
-export * from "./fitProfile.js";
+// The solver's fitProfile returns a plain FitResult; the public fitProfile (api/) wraps it in a Fit.
+export { fitProfile as fitProfileResult, bestOf, buildProblem, prepareFit, solvePrepared, startVector, usedPoints, summarize, type PreparedFit } from "./fitProfile.js";
+export * from "./fitSource.js";
+export * from "./refit.js";
 export * from "./autoStart.js";
 export * from "./profileInterval.js";
 export * from "./propagate.js";

@@ -1,3 +1,5 @@
+import type { ModelSource } from "../physics/modelSource.js";
+
 /**
  * Result types shared by the fitter, comparison, reports, the command line and widgets.
  * A fit that fails is a FitResult with converged = false, never an exception.
@@ -89,6 +91,22 @@ export interface FitResult {
   residuals: Float64Array;
   /** Indices flagged as outliers by the robust loss (empty otherwise). */
   flagged: number[];
+  /** What the fit was made from (model, options, data fingerprint); set by the public fitProfile. */
+  source?: FitSource;
+}
+
+/** What a fit was made from, so later steps (intervals, replay, comparison) need nothing else. */
+export interface FitSource {
+  /** The model: registry id and options, or formula text. */
+  model: ModelSource;
+  /** Fit options as given (callbacks and abort signals left out); JSON-safe. */
+  options: Record<string, unknown>;
+  /** profileFingerprint of the data (x, y, σ, mask). */
+  fingerprint: string;
+  /** The data file's name and SHA-256 when the profile was read from a file, else null. */
+  file: { source: string; sha256: string } | null;
+  /** Points in the profile (masked ones included). */
+  points: number;
 }
 
 /** Progress of a running fit, reported once per solver iteration. */

@@ -2,7 +2,7 @@ import { mkdirSync, mkdtempSync, readFileSync, rmSync, writeFileSync } from "nod
 import { tmpdir } from "node:os";
 import { join } from "node:path";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { getModel, pixelPositions, simulateProfile } from "../../src/index.js";
+import { getModel, pixelPositions, simulateProfile } from "../../src/advanced.js";
 import { runCli, runInProcess } from "./runCli.js";
 
 // B1-like camera line (../shared/bench/PROBLEMS.md) with fewer pixels; the truth is what the

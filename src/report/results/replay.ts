@@ -6,6 +6,7 @@
  */
 import { DataError, InvalidArgumentError } from "../../errors.js";
 import { fitProfile } from "../../fit/fitProfile.js";
+import { rebuildModel } from "../../fit/fitSource.js";
 import type { FitOptions, FitResult } from "../../fit/types.js";
 import type { Model } from "../../physics/model.js";
 import { getModel } from "../../physics/registry.js";
@@ -73,7 +74,10 @@ export function replayResults(
   const differences: ReplayDifference[] = [];
   const replayed: FitResult[] = [];
   for (const record of doc.fits) {
-    const model = engine.getModel(record.modelId, record.modelOptions);
+    // Formula models are rebuilt from their recorded text; registry models through the engine.
+    const model = record.formula
+      ? rebuildModel({ id: record.modelId, options: {}, formula: record.formula })
+      : engine.getModel(record.modelId, record.modelOptions);
     const now = engine.fitProfile(data, model, { ...record.fitOptions } as FitOptions);
     replayed.push(now);
     differences.push(...compareResults(record.label, record.result, now, { relative, fraction, stderrRelative }));

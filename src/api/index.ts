@@ -1,0 +1,4 @@
+// The one-line helpers: fitProfile → Fit, compare → Comparison. Re-exports only.
+export * from "./fit.js";
+export * from "./fitProfile.js";
+export * from "./compare.js";
