@@ -13,3 +13,4 @@ export * from "./profileInterval.js";
 export * from "./propagate.js";
 export * from "./bootstrap.js";
 export * from "./fitJoint.js";
+export * from "./residualScale.js";

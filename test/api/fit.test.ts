@@ -59,7 +59,7 @@ describe("fitProfile(profile, id | model, options) → Fit", () => {
   });
 
   it("a Fit copies like plain data (structuredClone, as a worker posts it) without its profile or model", () => {
-    const copy = structuredClone(byId) as Record<string, unknown>;
+    const copy = structuredClone(byId) as unknown as Record<string, unknown>;
     expect(copy.parameters).toEqual(byId.parameters);
     expect(copy.source).toEqual(byId.source);
     expect("profile" in copy || "fittedModel" in copy).toBe(false);

@@ -97,7 +97,7 @@ run("widget export buttons save the paper figure (Chromium)", () => {
     const mask = effectiveMask(x, null, null, [[0.2e-3, 0.4e-3]]);
     const curve = new Float64Array(x.length);
     model.evaluate(x, paramVector(model, state.params, new Float64Array(model.parameters.length)), curve);
-    const resid = residuals(y, curve, null, true, mask, new Float64Array(x.length));
+    const resid = residuals(y, curve, null, "sqrt-model", mask, new Float64Array(x.length));
     const figure = fitFigure({ x, y, mask, yUnit: "counts", counts: true }, { modelId: "two-slit", model: curve, residuals: resid }, { modelLabel: "model (sliders)" });
     expect(figure.layout.meta.widthMm).toBe(85); // single column, the builder's default
     const saved = files.get("fringekit-explorer-two-slit.svg")!;
@@ -125,7 +125,7 @@ run("widget export buttons save the paper figure (Chromium)", () => {
     const y = Float64Array.from(state.y);
     const curve = Float64Array.from(state.fit);
     const mask = new Uint8Array(x.length).fill(1);
-    const figure = fitFigure({ x, y, mask, yUnit: "counts", counts: true }, { modelId: "two-slit", model: curve, residuals: residuals(y, curve, null, true, mask, new Float64Array(x.length)) });
+    const figure = fitFigure({ x, y, mask, yUnit: "counts", counts: true }, { modelId: "two-slit", model: curve, residuals: residuals(y, curve, null, "sqrt-model", mask, new Float64Array(x.length)) });
     await expectSame(Buffer.from(svg), figure);
 
     const png = (await press(id, "png")).get("fringekit-explorer-two-slit.png")!;

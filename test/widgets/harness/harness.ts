@@ -4,7 +4,7 @@ import Plotly from "plotly.js-dist-min";
 import { HTMLManager } from "@jupyter-widgets/html-manager/lib/htmlmanager.js";
 import { getModel, paramVector, pixelPositions, simulateProfile } from "../../../src/physics/index.js";
 import { arrayToWire } from "../../../widgets/src/arrayWire.js";
-import * as widgetModule from "../../../widgets/src/advanced.js";
+import * as widgetModule from "../../../widgets/src/index.js";
 import { registerPhysicsModels } from "../../../widgets/src/registerPhysics.js";
 
 registerPhysicsModels();

@@ -3,7 +3,7 @@
 import { KernelManager, ServerConnection, type Kernel, type KernelMessage } from "@jupyterlab/services";
 import { shims } from "@jupyter-widgets/base";
 import { HTMLManager } from "@jupyter-widgets/html-manager/lib/htmlmanager.js";
-import * as widgetModule from "../../../widgets/src/advanced.js";
+import * as widgetModule from "../../../widgets/src/index.js";
 import { registerPhysicsModels } from "../../../widgets/src/registerPhysics.js";
 
 registerPhysicsModels();

@@ -9,7 +9,7 @@ import type { LocalFitRequest } from "../explorerView.js";
 addEventListener("message", (event: MessageEvent<LocalFitRequest>) => {
   const request = event.data;
   try {
-    const model = getModel(request.modelId);
+    const model = getModel(request.modelId, request.modelOptions ?? {});
     let last = 0;
     const result = fitProfile(
       { x: request.x, y: request.y, sigma: request.sigma ?? undefined, mask: request.mask, counts: request.counts, yUnit: "" },
