@@ -2,6 +2,7 @@
  * Kernel side of the coherence-scan widget: measured visibilities against slit separation, the
  * fitted source (coherence) model on a fine grid and its delta-method confidence band.
  */
+import { isFit, type Fit } from "../../src/api/fit.js";
 import { InvalidArgumentError } from "../../src/errors.js";
 import type { FitResult } from "../../src/fit/types.js";
 import type { Model } from "../../src/physics/model.js";
@@ -80,7 +81,15 @@ export class CoherenceScanWidget {
   }
 }
 
-/** Visibility against separation with the fitted source model and its band, in a widget. */
-export function coherenceScan(scan: Profile, result: FitResult, model: Model, options: CoherenceScanOptions = {}): CoherenceScanWidget {
-  return new CoherenceScanWidget(scan, result, model, options);
+/**
+ * Visibility against separation with the fitted source model and its band, in a widget.
+ * @example coherenceScan(discFit, { sourceLabel: "uniform disc" }) // discFit = fitProfile(scan, "coherence-disc", …)
+ */
+export function coherenceScan(fit: Fit, options?: CoherenceScanOptions): CoherenceScanWidget;
+/** The same for a plain FitResult: give the scan (x = separation in m, y = visibility) and the model. */
+export function coherenceScan(scan: Profile, result: FitResult, model: Model, options?: CoherenceScanOptions): CoherenceScanWidget;
+export function coherenceScan(a: Profile | Fit, b?: FitResult | CoherenceScanOptions, model?: Model, options: CoherenceScanOptions = {}): CoherenceScanWidget {
+  if (isFit(a)) return new CoherenceScanWidget(a.profile, a, a.fittedModel, (b as CoherenceScanOptions | undefined) ?? {});
+  if (!model || !b) throw new InvalidArgumentError("coherenceScan", "a scan without its fit and model", "a fit from fitProfile, or (scan, result, model)");
+  return new CoherenceScanWidget(a, b as FitResult, model, options);
 }

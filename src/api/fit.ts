@@ -154,3 +154,8 @@ export class Fit implements FitResult {
 function isScanModel(modelId: string): boolean {
   return modelId.startsWith("coherence-");
 }
+
+/** True for a Fit from fitProfile (it keeps its profile and model), also across module copies. */
+export function isFit(value: unknown): value is Fit {
+  return value instanceof Fit || (typeof value === "object" && value !== null && "fittedModel" in value && "profile" in value && "source" in value);
+}
