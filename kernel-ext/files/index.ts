@@ -52,3 +52,14 @@ export async function saveResults(what: HasResultsText, file: string, options: D
 export async function loadResults(file: string): Promise<ResultsDocument> {
   return parseResults(await readFile(file, "utf8"), path.basename(file));
 }
+
+/**
+ * Writes a text file (e.g. a summary) atomically, creating its folders.
+ * @returns the path written
+ */
+export async function saveText(file: string, text: string): Promise<string> {
+  if (typeof text !== "string") throw new InvalidArgumentError("text", typeof text, "a string");
+  await mkdir(path.dirname(path.resolve(file)), { recursive: true });
+  await writeFileAtomic(file, text);
+  return file;
+}

@@ -18,8 +18,9 @@ import type { FitTableOptions } from "../report/fitTable.js";
 import { formatParameter, type FormatOptions } from "../report/formatQuantity.js";
 import { encodeJson } from "../report/results/arrays.js";
 import { fitDocument, scanDocument, stringifyResults, type DocumentOptions, type ResultsDocument } from "../report/results/resultsDocument.js";
-import { fitReport, type TableReport } from "../report/tableReport.js";
+import { fitReport, quantityReport, type TableReport } from "../report/tableReport.js";
 import { derivedQuantities, type DerivedOptions, type DerivedReport } from "../stats/derivedQuantities.js";
+import type { DerivedQuantity } from "../stats/quantity.js";
 
 /**
  * A FitResult (every field of it, plain data) plus what it was made from and what users do
@@ -114,9 +115,18 @@ export class Fit implements FitResult {
     return formatParameter(this.param(name), options).text;
   }
 
-  /** Every derived quantity the parameters allow (fringe spacing, coherence length, …; SI), see derivedQuantities. */
-  derived(options: Omit<DerivedOptions, "profile"> = {}): DerivedReport {
-    return derivedQuantities(this, { ...options, profile: this.profile });
+  /**
+   * Every derived quantity the parameters allow (fringe spacing, coherence length, …; SI with
+   * standard uncertainties), see derivedQuantities; `byName.coherenceLength` reads one, `report()`
+   * tables the finite ones with the warnings as notes.
+   */
+  derived(options: Omit<DerivedOptions, "profile"> = {}): DerivedReport & { byName: Readonly<Record<string, DerivedQuantity>>; report(): TableReport } {
+    const found = derivedQuantities(this, { ...options, profile: this.profile });
+    return {
+      ...found,
+      byName: Object.fromEntries(found.quantities.map((q) => [q.name, q])),
+      report: () => quantityReport(found.quantities.filter((q) => Number.isFinite(q.value)), { notes: found.warnings }),
+    };
   }
 
   /** The fit's report table (HTML, Markdown, LaTeX, text); the data's file name is the default source. */
