@@ -37,8 +37,8 @@ export { derivedQuantities, type DerivedReport, type DerivedOptions } from "./st
 export { coherenceLength, degreeOfCoherence } from "./stats/coherence.js";
 export { sourceSize } from "./stats/sourceSize.js";
 export { fitSourceSizeJointly } from "./stats/jointSourceSize.js";
-export { farFieldValidity } from "./stats/farField.js";
-export { farFieldCheck, fringeSpacing, fresnelNumber } from "./physics/formulas.js";
+export { farFieldValidity, type PlannedGeometry } from "./api/farField.js";
+export { fringeSpacing, fresnelNumber } from "./physics/formulas.js";
 export type { DerivedQuantity, Measured, Calibration } from "./stats/quantity.js";
 
 // Reports and figures: value ± uncertainty text, tables, plotly figure descriptions (FigureSpec).

@@ -9,7 +9,7 @@ import type { Model } from "../../src/physics/model.js";
 import type { Profile } from "../../src/profile.js";
 import { confidenceBand } from "../../src/report/figures/confidenceBand.js";
 import { coherenceScanGrid } from "../../src/report/figures/coherenceScanFigure.js";
-import type { ScanQuantity } from "../../widgets/src/coherenceScanModel.js";
+import type { ScanQuantity } from "../../widgets/shared/state.js";
 import { display, MIME_BUNDLE, type MimeBundle } from "../display.js";
 import { WidgetModel } from "../widget/model.js";
 import { typedArraySerializer, type TypedArray } from "../widget/serializers.js";

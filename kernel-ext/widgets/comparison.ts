@@ -9,7 +9,7 @@ import type { Profile } from "../../src/profile.js";
 import { comparisonReport } from "../../src/report/tableReport.js";
 import { compareFits } from "../../src/stats/compareFits.js";
 import type { ComparisonResult, CompareOptions } from "../../src/stats/comparisonTypes.js";
-import type { ComparisonRow } from "../../widgets/src/comparisonModel.js";
+import type { ComparisonTableRow } from "../../widgets/shared/state.js";
 import { display, MIME_BUNDLE, type MimeBundle } from "../display.js";
 import { WidgetModel } from "../widget/model.js";
 import { ndArraySerializer, typedArraySerializer, type NdArray, type TypedArray } from "../widget/serializers.js";
@@ -23,7 +23,7 @@ interface ComparisonState extends Record<string, unknown> {
   y_unit: string;
   curves: NdArray | null;
   residuals: NdArray | null;
-  table: ComparisonRow[];
+  table: ComparisonTableRow[];
   verdict: string;
 }
 
@@ -67,7 +67,7 @@ export class ComparisonWidget {
       curves: { data: curves, shape: [ordered.length, n] },
       residuals: { data: residuals, shape: [ordered.length, n] },
       table: rows.map((r) => ({
-        label: r.label, modelId: r.modelId, nFree: r.k, reducedChi2: r.reducedChi2, aic: r.aic, bic: r.bic,
+        label: r.label, modelId: r.modelId, k: r.k, reducedChi2: r.reducedChi2, aic: r.aic, bic: r.bic,
         deltaAic: r.deltaAic, weight: r.weight, converged: r.converged,
       })),
       verdict: this.comparison.verdict,

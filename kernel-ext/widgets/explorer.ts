@@ -12,11 +12,12 @@ import { getModel, listModels, type ModelOptions } from "../../src/physics/index
 import type { Model } from "../../src/physics/model.js";
 import { modelSource } from "../../src/physics/modelSource.js";
 import type { Profile } from "../../src/profile.js";
-import { effectiveMask, keepCurveHeight, paramsForModel, paramVector, type ParamState } from "../../widgets/src/preview.js";
+import { effectiveMask, keepCurveHeight, paramsForModel, paramVector, type ParamState } from "../../widgets/shared/preview.js";
 import { display, MIME_BUNDLE, type MimeBundle } from "../display.js";
 import { WidgetModel } from "../widget/model.js";
 import { typedArraySerializer, type TypedArray } from "../widget/serializers.js";
-import { fitOptionsFromParams } from "../../widgets/src/fitRequest.js";
+import { fitOptionsFromParams } from "../../widgets/shared/fitRequest.js";
+import { progressFraction } from "../../widgets/shared/state.js";
 import { explorerFallback } from "./fallback.js";
 import { fitSummary } from "./fitSummary.js";
 import { startFit, type RunningFit } from "./fitRunner.js";
@@ -78,11 +79,6 @@ function browserModelIds(current: string): string[] {
     }
   });
   return ids.includes(current) ? ids : [current, ...ids];
-}
-
-/** Solver progress mapped to 0…1 for the bar: iterations on a log scale (the count is unknown). */
-function progressFraction(iteration: number): number {
-  return Math.min(0.95, Math.log1p(iteration) / Math.log1p(60));
 }
 
 /**

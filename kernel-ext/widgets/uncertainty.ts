@@ -10,7 +10,7 @@ import type { Model } from "../../src/physics/model.js";
 import type { Profile } from "../../src/profile.js";
 import { profileCurve } from "../../src/report/figures/profileCurve.js";
 import type { ProfileCurve } from "../../src/report/figures/profileLikelihoodFigure.js";
-import type { ProfiledParameter } from "../../widgets/src/uncertaintyModel.js";
+import type { ProfiledParameter } from "../../widgets/shared/state.js";
 import { display, MIME_BUNDLE, type MimeBundle } from "../display.js";
 import { WidgetModel } from "../widget/model.js";
 import { ndArraySerializer, type NdArray } from "../widget/serializers.js";

@@ -2,3 +2,4 @@
 export * from "./fit.js";
 export * from "./fitProfile.js";
 export * from "./compare.js";
+export { type PlannedGeometry } from "./farField.js";

@@ -3,7 +3,7 @@
 import { afterEach, describe, expect, it } from "vitest";
 import { fitProfileResult, getModel, paramVector as modelVector, pixelPositions, simulateProfile } from "../../src/advanced.js";
 import { explorer } from "../../kernel-ext/widgets/explorer.js";
-import { paramVector } from "../../widgets/src/preview.js";
+import { paramVector } from "../../widgets/shared/preview.js";
 import { installFakeKernel } from "./fakeKernel.js";
 
 let kernel: ReturnType<typeof installFakeKernel> | null = null;

@@ -12,7 +12,7 @@ import type { FigureSpec } from "../../src/report/figures/figureSpec.js";
 import { fitFigure } from "../../src/report/figures/fitFigure.js";
 import { profileLikelihoodFigure } from "../../src/report/figures/profileLikelihoodFigure.js";
 import { FigureRenderer } from "../../kernel-ext/figures/exportFigure.js";
-import { effectiveMask, paramVector, residuals, type ParamState } from "../../widgets/src/preview.js";
+import { effectiveMask, paramVector, residuals, type ParamState } from "../../widgets/shared/preview.js";
 import { hasChromium } from "./browser.js";
 import { openHarness, type HarnessPage } from "./page.js";
 

@@ -4,7 +4,7 @@ import { getModel, pixelPositions, simulateProfile } from "../../src/physics/ind
 import { fitProfileResult, residualScale, type Profile } from "../../src/advanced.js";
 import { fitFigure } from "../../src/report/figures/fitFigure.js";
 import { displayUnitFor, formatWithUncertainty } from "../../widgets/src/displayUnits.js";
-import { effectiveMask, paramsForModel, paramVector, residuals, sliderRange } from "../../widgets/src/preview.js";
+import { effectiveMask, paramsForModel, paramVector, residuals, sliderRange } from "../../widgets/shared/preview.js";
 
 describe("preview", () => {
   it("effectiveMask(x, mask, window, ranges) keeps points inside the window, outside ranges, with mask 1", () => {

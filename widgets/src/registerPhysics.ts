@@ -1,6 +1,6 @@
 /** Registers fringekit physics models with the browser catalog (same code the kernel runs). */
 import { getModel, listModels } from "../../src/physics/index.js";
-import { registerModel, registerModelBuilder } from "./catalog.js";
+import { registerModel, registerModelBuilder } from "../shared/catalog.js";
 
 /**
  * Register every detector-axis model of src/physics that can be built without options.

@@ -78,9 +78,9 @@ function comparisonState(n = 2048): Record<string, unknown> {
     x: f64(x), y: f64(profile.y), y_unit: "counts",
     curves: f64(curves, [variants.length, n]), residuals: f64(resid, [variants.length, n]),
     table: [
-      { label: "partial coherence (V free)", modelId: "two-slit", nFree: 7, reducedChi2: 1.012, aic: 2101.4, bic: 2141.2, deltaAic: 0, weight: 0.998, converged: true },
-      { label: "full coherence (V = 1)", modelId: "two-slit", nFree: 6, reducedChi2: 7.93, aic: 16203.7, bic: 16237.8, deltaAic: 14102.3, weight: 0, converged: true },
-      { label: "narrow slits", modelId: "two-slit", nFree: 7, reducedChi2: 1.016, aic: 2113.9, bic: 2153.7, deltaAic: 12.5, weight: 0.002, converged: true },
+      { label: "partial coherence (V free)", modelId: "two-slit", k: 7, reducedChi2: 1.012, aic: 2101.4, bic: 2141.2, deltaAic: 0, weight: 0.998, converged: true },
+      { label: "full coherence (V = 1)", modelId: "two-slit", k: 6, reducedChi2: 7.93, aic: 16203.7, bic: 16237.8, deltaAic: 14102.3, weight: 0, converged: true },
+      { label: "narrow slits", modelId: "two-slit", k: 7, reducedChi2: 1.016, aic: 2113.9, bic: 2153.7, deltaAic: 12.5, weight: 0.002, converged: true },
     ],
     verdict: "partial coherence (V free) is preferred: ΔAIC = 12.5 to the next model (weight 0.998).",
   };

@@ -2,8 +2,8 @@
 // explorer and posts progress and the result back.
 import { fitProfile } from "../../../src/fit/fitProfile.js";
 import { getModel } from "../../../src/physics/index.js";
-import { fitOptionsFromParams } from "../fitRequest.js";
-import { fitSummary } from "../fitSummary.js";
+import { fitOptionsFromParams } from "../../shared/fitRequest.js";
+import { fitSummary } from "../../shared/fitSummary.js";
 import type { LocalFitRequest } from "../explorerView.js";
 
 addEventListener("message", (event: MessageEvent<LocalFitRequest>) => {
