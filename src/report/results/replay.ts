@@ -87,7 +87,7 @@ export function replayResults(
   const what = `${doc.fits.length} fit${doc.fits.length === 1 ? "" : "s"} (${doc.fits.map((f) => f.label).join(", ")})`;
   const dataWords = dataCheck === "sha256" ? `data ${doc.input.source ?? ""} matched by SHA-256` : "data embedded in the results file";
   const summary = reproduced
-    ? `Reproduced: ${what} on ${dataWords}; every fitted value within ${num(fraction)} standard errors, fixed ones within ${num(relative)} relative, standard errors within ${num(stderrRelative * 100)} %, statistics within ${num(relative)} relative.`
+    ? `Reproduced: ${what} on ${dataWords}; every fitted value within ${num(fraction)} standard uncertainties, fixed ones within ${num(relative)} relative, standard uncertainties within ${num(stderrRelative * 100)} %, statistics within ${num(relative)} relative.`
     : `NOT reproduced: ${differences.length} difference${differences.length === 1 ? "" : "s"} in ${what} on ${dataWords}: ` +
       differences.slice(0, 5).map((d) => `${d.fit} ${d.quantity} ${d.recorded} → ${d.replayed} (allowed ${d.allowed})`).join("; ") +
       (differences.length > 5 ? `; and ${differences.length - 5} more` : "") + ".";
@@ -122,7 +122,7 @@ export function compareResults(
     const valueTol = Number.isFinite(p.uncertainty) && p.uncertainty > 0 ? tol.fraction * p.uncertainty : tol.relative * Math.abs(p.value);
     if (!within(p.value, q.value, valueTol)) add(`${p.name} value`, p.value, q.value, `± ${valueTol.toPrecision(2)}`);
     const seTol = Math.max(tol.stderrRelative, tol.relative) * Math.abs(p.uncertainty);
-    if (!within(p.uncertainty, q.uncertainty, seTol)) add(`${p.name} standard error`, p.uncertainty, q.uncertainty, `± ${seTol.toPrecision(2)}`);
+    if (!within(p.uncertainty, q.uncertainty, seTol)) add(`${p.name} uncertainty`, p.uncertainty, q.uncertainty, `± ${seTol.toPrecision(2)}`);
   }
   for (const key of ["chi2", "logLikelihood", "aic", "bic"] as const) {
     const a = recorded.statistics[key];
