@@ -44,12 +44,8 @@ export type { DerivedQuantity, Measured, Calibration } from "./stats/quantity.js
 // Reports and figures: value ± uncertainty text, tables, plotly figure descriptions (FigureSpec).
 export { formatQuantity, formatParameter, type FormatOptions, type FormattedQuantity } from "./report/formatQuantity.js";
 export { fitReport, comparisonReport, quantityReport, TableReport } from "./report/tableReport.js";
+// Figures: fit.figure() and comparison.figure() (builders for anything else: "fringekit/advanced").
 export type { FigureSpec } from "./report/figures/figureSpec.js";
-export { fitFigure } from "./report/figures/fitFigure.js";
-export { modelDifferenceFigure } from "./report/figures/modelDifferenceFigure.js";
-export { coherenceScanFigure } from "./report/figures/coherenceScanFigure.js";
-export { correlationFigure } from "./report/figures/correlationFigure.js";
-export { profileLikelihoodFigure } from "./report/figures/profileLikelihoodFigure.js";
 
 // Results files: everything needed to re-run and check a fit; replay says whether it reproduces.
 export { parseResults, stringifyResults, type ResultsDocument } from "./report/results/resultsDocument.js";
