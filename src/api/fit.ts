@@ -18,6 +18,7 @@ import type { FitTableOptions } from "../report/fitTable.js";
 import { formatParameter, type FormatOptions } from "../report/formatQuantity.js";
 import { encodeJson } from "../report/results/arrays.js";
 import { fitDocument, scanDocument, stringifyResults, type DocumentOptions, type ResultsDocument } from "../report/results/resultsDocument.js";
+import { replayResults, type ReplayOptions, type ReplayReport } from "../report/results/replay.js";
 import { fitReport, quantityReport, type TableReport } from "../report/tableReport.js";
 import { derivedQuantities, type DerivedOptions, type DerivedReport } from "../stats/derivedQuantities.js";
 import type { DerivedQuantity } from "../stats/quantity.js";
@@ -152,6 +153,14 @@ export class Fit implements FitResult {
   /** The results file's text (what saveResults writes; parseResults reads it back). */
   toResultsText(options: DocumentOptions & { label?: string } = {}): string {
     return stringifyResults(this.document(options));
+  }
+
+  /**
+   * Re-runs this fit from its own record (model, options) on its profile and says whether the
+   * numbers reproduce, exactly as a colleague replaying the results file would (see replayResults).
+   */
+  replay(options: ReplayOptions = {}): ReplayReport {
+    return replayResults(this.document(), this.profile, undefined, options);
   }
 
   /** JSON.stringify(fit) gives the results document (typed arrays as base64, exact numbers). */

@@ -78,6 +78,7 @@ describe("fitProfile(profile, id | model, options) → Fit", () => {
     expect(doc.fits[0].fitOptions).toEqual({ fix: bench });
     expect(doc.fits[0].result.parameters).toEqual(byId.parameters);
     expect(replayResults(doc, lineA).reproduced).toBe(true);
+    expect(byId.replay().reproduced).toBe(true);
   });
 });
 
