@@ -117,7 +117,7 @@ export async function main(): Promise<void> {
   }
   const ours = median(times);
   const line = (r: FitResult): string => r.parameters.filter((p) => !p.fixed)
-    .map((p) => `${p.name} ${((p.value - B1_TRUTH[p.name as keyof typeof B1_TRUTH]) / p.stderr).toFixed(2)}σ`).join(", ");
+    .map((p) => `${p.name} ${((p.value - B1_TRUTH[p.name as keyof typeof B1_TRUTH]) / p.uncertainty).toFixed(2)}σ`).join(", ");
   process.stdout.write(`fringekit gaussian (σ = √counts): ${result.reason}, ${result.evaluations} evaluations + ${result.jacobianEvaluations} Jacobians, reduced χ² ${result.statistics.reducedChi2.toFixed(4)}, median ${ours.toFixed(1)} ms over ${times.length}\n`);
   process.stdout.write(`  deviation from truth: ${line(result)}\n`);
   process.stdout.write(`  fringekit CPU time per fit: median ${median(cpuTimes).toFixed(1)} ms over ${cpuTimes.length}\n`);

@@ -182,7 +182,7 @@ export function runB6Case(c: B6Case): { success: boolean; ms: number; detail: st
     if (p.fixed || c.truth[p.name] === undefined) continue;
     let diff = p.value - c.truth[p.name];
     if (p.name === "phase") diff -= 2 * Math.PI * Math.round(diff / (2 * Math.PI));
-    if (!(Math.abs(diff) <= 4 * p.stderr)) off.push(`${p.name} ${p.value.toPrecision(5)} vs ${c.truth[p.name].toPrecision(5)} (±${p.stderr.toPrecision(2)})`);
+    if (!(Math.abs(diff) <= 4 * p.uncertainty)) off.push(`${p.name} ${p.value.toPrecision(5)} vs ${c.truth[p.name].toPrecision(5)} (±${p.uncertainty.toPrecision(2)})`);
   }
   const success = auto.converged && objectiveOk && off.length === 0;
   const starts = auto.starts ? `${auto.starts.agreeing}/${auto.starts.converged}/${auto.starts.tried}` : "-";

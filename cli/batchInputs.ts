@@ -4,7 +4,7 @@
  * with `--page each`, an image stack becomes one input per page.
  */
 import { readFileSync } from "node:fs";
-import { DataError, isTiff, readTiffDirectories } from "../src/index.js";
+import { DataError, isTiff, readTiffDirectories } from "../src/advanced.js";
 import type { BatchInput } from "./batchRow.js";
 import { expandFolders, readInputFile } from "./files.js";
 

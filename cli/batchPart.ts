@@ -13,7 +13,7 @@ import { createHash } from "node:crypto";
 import { closeSync, existsSync, fsyncSync, ftruncateSync, lstatSync, openSync, readFileSync, unlinkSync, writeSync } from "node:fs";
 import { dirname, join } from "node:path";
 import { fileURLToPath } from "node:url";
-import { DataError } from "../src/index.js";
+import { DataError } from "../src/advanced.js";
 import type { BatchInput, BatchRow } from "./batchRow.js";
 import { writeOutputFile } from "./files.js";
 import type { ParsedArgs } from "./parseArgs.js";

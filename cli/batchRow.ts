@@ -3,7 +3,7 @@
  * status, never throwing (a bad file is a row with status "error" and the one-line message);
  * and the rows as a CSV table that is safe to open in a spreadsheet.
  */
-import { FringekitError } from "../src/index.js";
+import { FringekitError } from "../src/advanced.js";
 import { fitFile } from "./commands/fit.js";
 import { fitJson, type FitJson } from "./fitJson.js";
 import { notConvergedText } from "./fitSettings.js";
@@ -53,7 +53,7 @@ function withPage(args: ParsedArgs, page: number): ParsedArgs {
 }
 
 /**
- * Rows → CSV: file, [page,] status, message, n, reducedChi2, aic, bic, then value and stderr
+ * Rows → CSV: file, [page,] status, message, n, reducedChi2, aic, bic, then value and uncertainty
  * (SI) of every parameter (in the order they first appear). Text cells are neutralised for
  * spreadsheets (see spreadsheetSafe); numbers are written as JavaScript prints them (shortest
  * text that reads back to the same double).
@@ -63,12 +63,12 @@ export function batchCsv(rows: readonly BatchRow[]): string {
   const names: string[] = [];
   for (const row of rows) for (const name of Object.keys(row.fit?.params ?? {})) if (!names.includes(name)) names.push(name);
   const paged = rows.some((r) => r.page !== undefined);
-  const header = ["file", ...(paged ? ["page"] : []), "status", "message", "n", "reducedChi2", "aic", "bic", ...names.flatMap((n) => [n, `${n}_stderr`])];
+  const header = ["file", ...(paged ? ["page"] : []), "status", "message", "n", "reducedChi2", "aic", "bic", ...names.flatMap((n) => [n, `${n}_uncertainty`])];
   const lines = [header.map(textCell).join(",")];
   for (const row of rows) {
     const s = row.fit?.stats;
     const cells: string[] = [textCell(row.file), ...(paged ? [numberCell(row.page)] : []), textCell(row.status), textCell(row.message), numberCell(s?.n), numberCell(s?.reducedChi2), numberCell(s?.aic), numberCell(s?.bic)];
-    for (const name of names) cells.push(numberCell(row.fit?.params[name]?.value), numberCell(row.fit?.params[name]?.stderr));
+    for (const name of names) cells.push(numberCell(row.fit?.params[name]?.value), numberCell(row.fit?.params[name]?.uncertainty));
     lines.push(cells.join(","));
   }
   return `${lines.join("\n")}\n`;

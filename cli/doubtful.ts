@@ -2,7 +2,7 @@
  * Exit status and stderr line for fits that converged but that a check calls doubtful:
  * "poor-fit" (χ² test), "no-fringes", "fringe-aliased". Status 3 unless --accept-doubtful.
  */
-import { DOUBTFUL_CODES, type FitResult } from "../src/index.js";
+import { DOUBTFUL_CODES, type FitResult } from "../src/advanced.js";
 
 /** Exit status of a converged fit that a check calls doubtful. */
 export const DOUBTFUL_EXIT = 3;

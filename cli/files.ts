@@ -5,7 +5,7 @@
 import { randomBytes } from "node:crypto";
 import { readdirSync, readFileSync, renameSync, statSync, unlinkSync, writeFileSync, openSync, readSync, closeSync, realpathSync } from "node:fs";
 import { basename, dirname, join, resolve } from "node:path";
-import { DataError, MAX_IMAGE_BYTES, MAX_TABLE_BYTES, checkFileSize, isImage } from "../src/index.js";
+import { DataError, MAX_IMAGE_BYTES, MAX_TABLE_BYTES, checkFileSize, isImage } from "../src/advanced.js";
 
 /**
  * Reads a data file after checking that it exists, is a regular file and is not too large

@@ -2,7 +2,7 @@
  * The JSON object `fringekit fit --json` prints: values in SI units; an uncertainty that could
  * not be estimated (Infinity) is written as null because JSON has no infinity.
  */
-import type { FitResult, Provenance } from "../src/index.js";
+import type { FitResult, Provenance } from "../src/advanced.js";
 import type { AssumedDefault } from "./fitSettings.js";
 
 /** The documented shape of `fringekit fit --json`. */
@@ -10,7 +10,7 @@ export interface FitJson {
   model: string;
   converged: boolean;
   reason: string;
-  params: Record<string, { value: number; stderr: number | null; unit: string; fixed: boolean }>;
+  params: Record<string, { value: number; uncertainty: number | null; unit: string; fixed: boolean }>;
   stats: { n: number; dof: number; chi2: number; reducedChi2: number; logLikelihood: number; aic: number; aicc: number; bic: number };
   warnings: { code: string; message: string; parameter?: string }[];
   /** The goodness-of-fit test (fit/goodness): verdict, χ²/ν, p-value (null when not tested), thresholds, fringe detection. */
@@ -27,7 +27,7 @@ export interface FitJson {
  */
 export function fitJson(result: FitResult, provenance: Provenance | undefined, dataWarnings: readonly string[], assumed: readonly AssumedDefault[] = []): FitJson {
   const params: FitJson["params"] = {};
-  for (const p of result.parameters) params[p.name] = { value: p.value, stderr: Number.isFinite(p.stderr) ? p.stderr : null, unit: p.unit, fixed: p.fixed };
+  for (const p of result.parameters) params[p.name] = { value: p.value, uncertainty: Number.isFinite(p.uncertainty) ? p.uncertainty : null, unit: p.unit, fixed: p.fixed };
   const s = result.statistics;
   return {
     model: result.modelId,

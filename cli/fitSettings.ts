@@ -2,7 +2,7 @@
  * --set, --fix, --noise and --max-evaluations words → fit options in SI, checked against the
  * model's parameters.
  */
-import { formatQuantity, InvalidArgumentError, parseQuantity, type FitResult, type Model, type NoiseModelId, type ParameterSpec } from "../src/index.js";
+import { formatQuantity, InvalidArgumentError, parseQuantity, type FitResult, type Model, type NoiseModelId, type ParameterSpec } from "../src/advanced.js";
 import type { CommandFitOptions } from "./engine.js";
 import { UsageError } from "./usageError.js";
 

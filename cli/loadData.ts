@@ -2,7 +2,7 @@
  * Options shared by the commands that read data, and the loading itself.
  */
 import { basename } from "node:path";
-import { parseQuantity, readImage, readProfile, type ImageStack, type LoadedProfile, type ProfileOptions, type RegionOfInterest } from "../src/index.js";
+import { parseQuantity, readImage, readProfile, type ImageStack, type LoadedProfile, type ProfileOptions, type RegionOfInterest } from "../src/advanced.js";
 import { readInputFile } from "./files.js";
 import type { OptionSpec, ParsedArgs } from "./parseArgs.js";
 import { UsageError } from "./usageError.js";

@@ -25,7 +25,7 @@ import {
   twoSlitBroadbandModel,
   twoSlitModel,
   type Random,
-} from "../src/index.js";
+} from "../src/advanced.js";
 
 /** Output folder: notebooks-demo/data/, or the folder given as the first argument (tests use a temporary one). */
 const dataDir = process.argv[2] ?? join(dirname(fileURLToPath(import.meta.url)), "..", "notebooks-demo", "data");

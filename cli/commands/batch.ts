@@ -21,7 +21,7 @@ import { checkOutputPath, writeOutputFile } from "../files.js";
 import { parseArgs, type ParsedArgs } from "../parseArgs.js";
 import type { CommandOutput } from "../output.js";
 import { UsageError } from "../usageError.js";
-import { DataError } from "../../src/index.js";
+import { DataError } from "../../src/advanced.js";
 import { DEFAULT_MODEL, FIT_OPTIONS } from "./fit.js";
 
 /** Options of the batch command. */

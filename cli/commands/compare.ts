@@ -1,5 +1,5 @@
 /** `fringekit compare FILE --models A,B,... [fit settings] [--json]`. */
-import { compareFits, comparisonDocument, comparisonJson, comparisonTable, fitCandidates, getModel, stringifyResults, tableToText, type FitResult } from "../../src/index.js";
+import { compareFits, comparisonDocument, comparisonJson, comparisonTable, fitCandidates, getModel, stringifyResults, tableToText, type FitResult } from "../../src/advanced.js";
 import { DOUBTFUL_EXIT, doubtfulAdvice, doubtfulSummary } from "../doubtful.js";
 import { fitSettings, notConvergedSummary } from "../fitSettings.js";
 import { writeOutputFile } from "../files.js";

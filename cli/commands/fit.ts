@@ -1,5 +1,5 @@
 /** `fringekit fit FILE [--model ID] [--set ...] [--fix ...] [--noise ...] [--json] [--out FILE]`. */
-import { checkCountsForPoisson, fitDocument, fitFigure, fitProfile, fitTable, getModel, stringifyResults, tableToText, type FitResult, type LoadedProfile } from "../../src/index.js";
+import { checkCountsForPoisson, fitDocument, fitFigure, fitProfile, fitTable, getModel, stringifyResults, tableToText, type FitResult, type LoadedProfile } from "../../src/advanced.js";
 import type { CommandFitOptions } from "../engine.js";
 import { fitJson } from "../fitJson.js";
 import { DOUBTFUL_EXIT, doubtfulAdvice, doubtfulSummary } from "../doubtful.js";

@@ -6,7 +6,7 @@
  */
 import { readdirSync, statSync } from "node:fs";
 import { join } from "node:path";
-import { DataError } from "../../src/index.js";
+import { DataError } from "../../src/advanced.js";
 import { identityDifference, readPart, type PartContent } from "../batchPart.js";
 import { batchCsv, type BatchRow } from "../batchRow.js";
 import { shardPositions } from "../batchShard.js";

@@ -1,5 +1,5 @@
 /** `fringekit models [--json]`: the models and their parameters. */
-import { listModels } from "../../src/index.js";
+import { listModels } from "../../src/advanced.js";
 import { parseArgs } from "../parseArgs.js";
 import type { CommandOutput } from "../output.js";
 

@@ -1,6 +1,6 @@
 /** `fringekit profile FRAME [--roi X,Y,W,H] [--dark FILE] [--flat FILE] [--pixel-pitch V U] [--out FILE.csv]`. */
 import { basename } from "node:path";
-import { formatQuantity, frameToLine, readImage, sha256Hex } from "../../src/index.js";
+import { formatQuantity, frameToLine, readImage, sha256Hex } from "../../src/advanced.js";
 import { readInputFile, writeOutputFile } from "../files.js";
 import { DATA_OPTIONS, profileOptions } from "../loadData.js";
 import { parseArgs } from "../parseArgs.js";

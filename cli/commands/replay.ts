@@ -1,7 +1,7 @@
 /** `fringekit replay RESULT.json [--data FILE] [--dark FILE] [--flat FILE] [--json]`. */
 import { existsSync, readFileSync } from "node:fs";
 import { basename, dirname, join } from "node:path";
-import { DataError, decodeText, parseResults, readImage, readOptionsFromRecord, readProfile, replayResults, type Profile } from "../../src/index.js";
+import { DataError, decodeText, parseResults, readImage, readOptionsFromRecord, readProfile, replayResults, type Profile } from "../../src/advanced.js";
 import { readInputFile } from "../files.js";
 import { parseArgs } from "../parseArgs.js";
 import type { CommandOutput } from "../output.js";

@@ -2,13 +2,14 @@
  * Kernel side of the model-comparison widget: several fits of one profile, compared with
  * compareFits (information criteria, Akaike weights, nested tests) and drawn together.
  */
+import { compare, Comparison, type FitsToCompare } from "../../src/api/compare.js";
 import { InvalidArgumentError } from "../../src/errors.js";
 import type { FitResult } from "../../src/fit/types.js";
 import type { Profile } from "../../src/profile.js";
 import { comparisonReport } from "../../src/report/tableReport.js";
 import { compareFits } from "../../src/stats/compareFits.js";
 import type { ComparisonResult, CompareOptions } from "../../src/stats/comparisonTypes.js";
-import type { ComparisonRow } from "../../widgets/src/comparisonModel.js";
+import type { ComparisonTableRow } from "../../widgets/shared/state.js";
 import { display, MIME_BUNDLE, type MimeBundle } from "../display.js";
 import { WidgetModel } from "../widget/model.js";
 import { ndArraySerializer, typedArraySerializer, type NdArray, type TypedArray } from "../widget/serializers.js";
@@ -22,7 +23,7 @@ interface ComparisonState extends Record<string, unknown> {
   y_unit: string;
   curves: NdArray | null;
   residuals: NdArray | null;
-  table: ComparisonRow[];
+  table: ComparisonTableRow[];
   verdict: string;
 }
 
@@ -66,7 +67,7 @@ export class ComparisonWidget {
       curves: { data: curves, shape: [ordered.length, n] },
       residuals: { data: residuals, shape: [ordered.length, n] },
       table: rows.map((r) => ({
-        label: r.label, modelId: r.modelId, nFree: r.k, reducedChi2: r.reducedChi2, aic: r.aic, bic: r.bic,
+        label: r.label, modelId: r.modelId, k: r.k, reducedChi2: r.reducedChi2, aic: r.aic, bic: r.bic,
         deltaAic: r.deltaAic, weight: r.weight, converged: r.converged,
       })),
       verdict: this.comparison.verdict,
@@ -88,9 +89,21 @@ export class ComparisonWidget {
 }
 
 /**
- * Compare fits of `profile` in a widget (fits overlaid, residuals, table, verdict).
- * @example comparison(profile, [{ label: "V free", result: a }, { label: "V = 1", result: b }])
+ * Compare fits in a widget (fits overlaid, residuals, table, verdict): a Comparison from
+ * compare(), fits by label, or a profile with its fits.
+ * @example comparison(compare({ ideal, broadband }), { title: "line A" })
  */
-export function comparison(profile: Profile, fits: readonly (FitResult | LabelledResult)[], options: CompareOptions & { title?: string } = {}): ComparisonWidget {
-  return new ComparisonWidget(profile, fits, options);
+export function comparison(fits: Comparison | FitsToCompare, options?: CompareOptions & { title?: string }): ComparisonWidget;
+export function comparison(profile: Profile, fits: readonly (FitResult | LabelledResult)[], options?: CompareOptions & { title?: string }): ComparisonWidget;
+export function comparison(
+  a: Profile | Comparison | FitsToCompare,
+  b?: readonly (FitResult | LabelledResult)[] | (CompareOptions & { title?: string }),
+  options: CompareOptions & { title?: string } = {},
+): ComparisonWidget {
+  const isProfile = (v: unknown): v is Profile => typeof v === "object" && v !== null && (v as Profile).x instanceof Float64Array;
+  if (isProfile(a)) return new ComparisonWidget(a, b as readonly (FitResult | LabelledResult)[], options);
+  const opts = (b as (CompareOptions & { title?: string }) | undefined) ?? {};
+  const { title, ...compareOptions } = opts;
+  const done = a instanceof Comparison ? a : compare(a as FitsToCompare, compareOptions);
+  return new ComparisonWidget(done.profile, done.fits.map((f) => ({ label: f.label, result: f.fit })), { ...compareOptions, title });
 }

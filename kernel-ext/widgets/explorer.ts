@@ -3,17 +3,21 @@
  * state the browser edits, fits on the browser's "fit" request (progress, cancel) and hands the
  * result to cell code as `explorer.result`.
  */
+import { Fit } from "../../src/api/fit.js";
 import { InvalidArgumentError } from "../../src/errors.js";
 import { autoStartCandidates, supportsAutoStart } from "../../src/fit/autoStart.js";
-import type { FitOptions, FitResult, NoiseModelId } from "../../src/fit/types.js";
-import { getModel, listModels } from "../../src/physics/index.js";
+import { describeFit } from "../../src/fit/fitSource.js";
+import type { FitOptions, NoiseModelId } from "../../src/fit/types.js";
+import { getModel, listModels, type ModelOptions } from "../../src/physics/index.js";
 import type { Model } from "../../src/physics/model.js";
+import { modelSource } from "../../src/physics/modelSource.js";
 import type { Profile } from "../../src/profile.js";
-import { effectiveMask, paramsForModel, type ParamState } from "../../widgets/src/preview.js";
+import { effectiveMask, keepCurveHeight, paramsForModel, paramVector, type ParamState } from "../../widgets/shared/preview.js";
 import { display, MIME_BUNDLE, type MimeBundle } from "../display.js";
 import { WidgetModel } from "../widget/model.js";
 import { typedArraySerializer, type TypedArray } from "../widget/serializers.js";
-import { fitOptionsFromParams } from "../../widgets/src/fitRequest.js";
+import { fitOptionsFromParams } from "../../widgets/shared/fitRequest.js";
+import { progressFraction } from "../../widgets/shared/state.js";
 import { explorerFallback } from "./fallback.js";
 import { fitSummary } from "./fitSummary.js";
 import { startFit, type RunningFit } from "./fitRunner.js";
@@ -29,6 +33,8 @@ export interface ExplorerState extends Record<string, unknown> {
   counts: boolean;
   y_unit: string;
   model_id: string;
+  /** getModel options of the model shown (JSON), so the browser previews and fits the same model. */
+  model_options: Record<string, unknown>;
   model_choices: string[];
   params: Record<string, ParamState>;
   noise: string;
@@ -43,11 +49,18 @@ export interface ExplorerState extends Record<string, unknown> {
 
 /** Options of `explorer()`. */
 export interface ExplorerOptions {
-  /** Model id from the registry (default "two-slit") or a built model. */
+  /** Model id from the registry (default "two-slit") or a built model (getModel, formulaModel). */
   model?: string | Model;
+  /** Options for getModel when `model` is an id (e.g. { smallAngle: true }); kept when the user switches models. */
+  modelOptions?: ModelOptions;
   /** Starting slider values (SI) by name; others from the automatic start or the model defaults. */
   start?: Record<string, number>;
-  /** Names held fixed (in addition to the model's fixed-by-default ones). */
+  /**
+   * Held parameters, as in fitProfile: name → value (SI), or names held at their start value
+   * (in addition to the model's fixed-by-default ones).
+   */
+  fix?: Record<string, number> | string[];
+  /** Older spelling of `fix` as a list of names. */
   fixed?: string[];
   /** Noise model (default "auto"). */
   noise?: NoiseModelId | "auto";
@@ -68,11 +81,6 @@ function browserModelIds(current: string): string[] {
   return ids.includes(current) ? ids : [current, ...ids];
 }
 
-/** Solver progress mapped to 0…1 for the bar: iterations on a log scale (the count is unknown). */
-function progressFraction(iteration: number): number {
-  return Math.min(0.95, Math.log1p(iteration) / Math.log1p(60));
-}
-
 /**
  * The profile explorer. Show it as a cell's last value or with `display()`; after the user
  * presses Fit (or cell code calls `fit()`), `result` holds the FitResult.
@@ -81,7 +89,13 @@ export class Explorer {
   readonly widget: WidgetModel<ExplorerState>;
   readonly profile: Profile;
   private model: Model;
-  private latest: FitResult | null = null;
+  /** The model the explorer was opened with (switching back returns to it, formula models included). */
+  private readonly original: Model;
+  /** Model options (smallAngle, quadrature nodes) kept across model switches. */
+  private readonly modelOptions: ModelOptions;
+  private latest: Fit | null = null;
+  /** Slider state before the latest change (a model switch arrives with the new model's defaults already in). */
+  private shown: Record<string, ParamState> = {};
   private running: RunningFit | null = null;
 
   constructor(profile: Profile, options: ExplorerOptions = {}) {
@@ -89,31 +103,40 @@ export class Explorer {
       throw new InvalidArgumentError("profile", profile?.x?.length, "a Profile with Float64Array x and y of the same length ≥ 2 (positions in m)");
     }
     this.profile = profile;
-    this.model = typeof options.model === "object" ? options.model : getModel(options.model ?? "two-slit");
+    if (typeof options.model === "object" && options.modelOptions) {
+      throw new InvalidArgumentError("modelOptions", options.modelOptions, "only with a model id; a model object already carries its options");
+    }
+    this.model = typeof options.model === "object" ? options.model : getModel(options.model ?? "two-slit", options.modelOptions ?? {});
+    this.original = this.model;
+    this.modelOptions = { ...(modelSource(this.model).options as ModelOptions) };
+    const fix = options.fix ?? [];
+    const fixValues: Record<string, number> = Array.isArray(fix) ? {} : { ...fix };
+    const fixNames = [...(Array.isArray(fix) ? fix : Object.keys(fix)), ...(options.fixed ?? [])];
+    const given = { ...(options.start ?? {}), ...fixValues };
     const params = paramsForModel(this.model);
-    const start = { ...this.autoStart(options.start ?? {}), ...(options.start ?? {}) };
-    for (const [name, value] of Object.entries(start)) {
-      if (!params[name]) throw new InvalidArgumentError("start", name, `a parameter of model ${this.model.id}: ${Object.keys(params).join(", ")}`);
-      params[name].value = value;
+    for (const name of [...Object.keys(given), ...fixNames]) {
+      if (!params[name]) throw new InvalidArgumentError(name in given ? "start" : "fix", name, `a parameter of model ${this.model.id}: ${Object.keys(params).join(", ")}`);
     }
-    for (const name of options.fixed ?? []) {
-      if (!params[name]) throw new InvalidArgumentError("fixed", name, `a parameter of model ${this.model.id}`);
-      params[name].fixed = true;
-    }
+    const start = { ...this.autoStart(this.model, given), ...given };
+    for (const [name, value] of Object.entries(start)) params[name].value = value;
+    for (const name of fixNames) params[name].fixed = true;
     this.widget = new WidgetModel<ExplorerState>(widgetIdentity("Explorer"), {
       title: options.title ?? "Profile explorer",
       x: profile.x, y: profile.y, sigma: profile.sigma ?? null, mask: profile.mask ?? null,
       counts: profile.counts, y_unit: profile.yUnit,
       model_id: this.model.id,
+      model_options: this.modelOptions,
       model_choices: browserModelIds(this.model.id),
       params, noise: options.noise ?? "auto", window: null, masked_ranges: [],
       fit_state: "idle", fit_progress: 0, fit_message: "", result: null, fit_curve: null,
     }, { serializers: { x: typedArraySerializer, y: typedArraySerializer, sigma: typedArraySerializer, mask: typedArraySerializer, fit_curve: typedArraySerializer } });
     this.widget.onChange((changes, source) => {
       if (source === "frontend" && typeof changes.model_id === "string" && changes.model_id !== this.model.id) {
-        this.model = getModel(changes.model_id);
+        this.switchModel(changes.model_id, this.shown);
       }
+      this.shown = structuredClone(this.widget.get("params"));
     });
+    this.shown = structuredClone(params);
     this.widget.onCustom((content) => {
       const action = (content as { action?: string } | null)?.action;
       if (action === "fit") void this.fit().catch(() => undefined);
@@ -122,7 +145,7 @@ export class Explorer {
   }
 
   /** The latest fit (null before the first), in SI; the same object the widget shows. */
-  get result(): FitResult | null {
+  get result(): Fit | null {
     return this.latest;
   }
 
@@ -142,7 +165,7 @@ export class Explorer {
    * Fit the free parameters from the current slider values (what the Fit button does).
    * The widget shows progress; the promise resolves with the result (also in `result`).
    */
-  async fit(): Promise<FitResult> {
+  async fit(): Promise<Fit> {
     if (this.running) throw new InvalidArgumentError("fit", "a fit is already running", "wait for it or cancel() it first");
     const { profile, options } = this.fitRequest();
     this.widget.set({ fit_state: "running", fit_progress: 0, fit_message: "fitting…" });
@@ -150,7 +173,8 @@ export class Explorer {
       this.running = startFit(profile, this.model, options, (p) => {
         this.widget.set({ fit_progress: progressFraction(p.iteration), fit_message: `iteration ${p.iteration}, objective ${p.objective.toPrecision(7)}` });
       });
-      const result = await this.running.result;
+      const model = this.model;
+      const result = new Fit({ ...(await this.running.result), source: describeFit(profile, model, options) }, profile, model);
       this.latest = result;
       const params = { ...this.widget.get("params") };
       for (const p of result.parameters) params[p.name] = { ...params[p.name]!, value: p.value };
@@ -189,12 +213,33 @@ export class Explorer {
     this.widget.close();
   }
 
-  /** Automatic starting values; the known wavelength and distance come from `given` when set there. */
-  private autoStart(given: Record<string, number>): Record<string, number> {
-    if (!supportsAutoStart(this.model)) return {};
-    const value = (name: string) => given[name] ?? this.model.parameters.find((p) => p.name === name)!.default;
-    const [first] = autoStartCandidates(this.profile.x, this.profile.y, value("wavelength"), value("distance"));
-    return first ?? {};
+  /**
+   * Automatic starting values of `model`'s own parameters (a two-slit-like start names some a
+   * model may lack, e.g. visibility for n-slit); wavelength and distance come from `given` when set.
+   */
+  private autoStart(model: Model, given: Record<string, number>): Record<string, number> {
+    if (!supportsAutoStart(model)) return {};
+    const value = (name: string) => given[name] ?? model.parameters.find((p) => p.name === name)!.default;
+    const smallAngle = this.modelOptions.smallAngle === true;
+    const [first] = autoStartCandidates(this.profile.x, this.profile.y, value("wavelength"), value("distance"), smallAngle);
+    const names = new Set(model.parameters.map((p) => p.name));
+    return Object.fromEntries(Object.entries(first ?? {}).filter(([name]) => names.has(name)));
+  }
+
+  /**
+   * The user picked another model: build it with the same model options, start its new
+   * parameters from the data, keep the shared ones, and keep the curve's height.
+   */
+  private switchModel(id: string, previous: Record<string, ParamState>): void {
+    const previousModel = this.model;
+    this.model = id === this.original.id ? this.original : getModel(id, this.modelOptions);
+    const next = paramsForModel(this.model, previous);
+    const kept = Object.fromEntries(Object.entries(previous).filter(([name]) => next[name] !== undefined).map(([name, p]) => [name, p.value]));
+    for (const [name, value] of Object.entries(this.autoStart(this.model, kept))) {
+      if (previous[name] === undefined) next[name] = { ...next[name]!, value };
+    }
+    keepCurveHeight(this.profile.x, previousModel, paramVector(previousModel, previous, new Float64Array(previousModel.parameters.length)), this.model, next);
+    this.widget.set({ params: next, result: null, fit_curve: null, fit_state: "idle", fit_message: "" });
   }
 }
 

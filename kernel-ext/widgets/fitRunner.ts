@@ -1,21 +1,22 @@
 /**
  * Runs a fit for a widget without blocking the kernel: in a worker thread when the model can be
- * rebuilt there from its registry id (so comm messages — progress, cancel — keep flowing), else
- * in this thread after the current message is handled.
+ * rebuilt there from its source — registry id with its options, or formula text — (so comm
+ * messages — progress, cancel — keep flowing), else in this thread after the current message.
  */
 import { existsSync } from "node:fs";
 import { fileURLToPath } from "node:url";
 import { Worker } from "node:worker_threads";
 import { fitProfile } from "../../src/fit/fitProfile.js";
 import type { FitOptions, FitProgress, FitResult } from "../../src/fit/types.js";
-import { getModel } from "../../src/physics/index.js";
 import type { Model } from "../../src/physics/model.js";
+import { modelSource, type ModelSource } from "../../src/physics/modelSource.js";
 import type { Profile } from "../../src/profile.js";
 
 /** What the worker receives (structured-cloned). */
 export interface FitJobData {
   profile: Profile;
-  modelId: string;
+  /** How to rebuild exactly the model shown (id and options, or formula). */
+  model: ModelSource;
   options: Omit<FitOptions, "onProgress" | "signal">;
   cancelFlag: SharedArrayBuffer;
 }
@@ -37,15 +38,6 @@ function workerFile(): string | null {
   return file.endsWith(".js") && existsSync(file) ? file : null;
 }
 
-function sameAsRegistry(model: Model): boolean {
-  try {
-    const rebuilt = getModel(model.id);
-    return rebuilt.parameters.length === model.parameters.length && rebuilt.parameters.every((p, j) => p.name === model.parameters[j]!.name);
-  } catch {
-    return false;
-  }
-}
-
 /**
  * Start fitting `model` to `profile`.
  * @param onProgress called with solver progress (iteration, evaluations, objective), at most every 50 ms
@@ -55,8 +47,9 @@ export function startFit(profile: Profile, model: Model, options: FitJobData["op
   const flag = new Int32Array(cancelFlag);
   const cancel = () => Atomics.store(flag, 0, 1);
   const file = workerFile();
-  if (file !== null && sameAsRegistry(model)) {
-    const worker = new Worker(file, { workerData: { profile, modelId: model.id, options, cancelFlag } satisfies FitJobData });
+  const { rebuildable, ...source } = modelSource(model);
+  if (file !== null && rebuildable) {
+    const worker = new Worker(file, { workerData: { profile, model: source, options, cancelFlag } satisfies FitJobData });
     const result = new Promise<FitResult>((resolve, reject) => {
       worker.on("message", (message: { type: string; result?: FitResult; message?: string } & Partial<FitProgress>) => {
         if (message.type === "progress") onProgress(message as FitProgress);

@@ -1,6 +1,6 @@
 /** Model/view names of fringekit's widgets as the kernel announces them (protocol 2.1). */
 import type { WidgetIdentity } from "../widget/model.js";
-import { MODULE_NAME, MODULE_VERSION } from "../../widgets/src/version.js";
+import { MODULE_NAME, MODULE_VERSION } from "../../widgets/shared/version.js";
 
 /** Identity of the frontend pair `${name}Model` / `${name}View` in the fringekit widget module. */
 export function widgetIdentity(name: "Explorer" | "Comparison" | "Uncertainty" | "CoherenceScan"): WidgetIdentity {

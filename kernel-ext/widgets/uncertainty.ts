@@ -2,6 +2,7 @@
  * Kernel side of the uncertainty widget: profile-likelihood curves (re-fits with the parameter
  * held at grid values) and intervals for the chosen parameters, and the correlation matrix.
  */
+import { isFit, type Fit } from "../../src/api/fit.js";
 import { InvalidArgumentError } from "../../src/errors.js";
 import { profileInterval, type ProfileInterval } from "../../src/fit/profileInterval.js";
 import type { FitResult } from "../../src/fit/types.js";
@@ -9,7 +10,7 @@ import type { Model } from "../../src/physics/model.js";
 import type { Profile } from "../../src/profile.js";
 import { profileCurve } from "../../src/report/figures/profileCurve.js";
 import type { ProfileCurve } from "../../src/report/figures/profileLikelihoodFigure.js";
-import type { ProfiledParameter } from "../../widgets/src/uncertaintyModel.js";
+import type { ProfiledParameter } from "../../widgets/shared/state.js";
 import { display, MIME_BUNDLE, type MimeBundle } from "../display.js";
 import { WidgetModel } from "../widget/model.js";
 import { ndArraySerializer, type NdArray } from "../widget/serializers.js";
@@ -64,7 +65,7 @@ export class UncertaintyWidget {
       title: options.title ?? "Uncertainty",
       parameters: this.intervals.map((iv) => {
         const p = result.parameters.find((q) => q.name === iv.parameter)!;
-        return { name: iv.parameter, unit: iv.unit, best: iv.value, stderr: Number.isFinite(p.stderr) ? p.stderr : null,
+        return { name: iv.parameter, unit: iv.unit, best: iv.value, uncertainty: Number.isFinite(p.uncertainty) ? p.uncertainty : null,
           interval: [iv.openLower ? null : iv.lower, iv.openUpper ? null : iv.upper] as [number | null, number | null] };
       }),
       grid: { data: grid, shape: [names.length, points] },
@@ -93,9 +94,15 @@ export class UncertaintyWidget {
 }
 
 /**
- * Profile-likelihood curves, intervals and correlations of a fit in a widget.
- * @param profile and model: the ones the fit used
+ * Profile-likelihood curves, intervals and correlations of a fit in a widget, re-fitted with
+ * the fit's own model and options.
+ * @example uncertainty(fit, { names: ["bandwidth"], level: 0.95 })
  */
-export function uncertainty(result: FitResult, profile: Profile, model: Model, options: UncertaintyOptions = {}): UncertaintyWidget {
-  return new UncertaintyWidget(result, profile, model, options);
+export function uncertainty(fit: Fit, options?: UncertaintyOptions): UncertaintyWidget;
+/** The same for a plain FitResult: give the profile and model the fit used. */
+export function uncertainty(result: FitResult, profile: Profile, model: Model, options?: UncertaintyOptions): UncertaintyWidget;
+export function uncertainty(result: FitResult | Fit, a?: Profile | UncertaintyOptions, model?: Model, options: UncertaintyOptions = {}): UncertaintyWidget {
+  if (isFit(result) && model === undefined) return new UncertaintyWidget(result, result.profile, result.fittedModel, (a as UncertaintyOptions | undefined) ?? {});
+  if (!model || !a) throw new InvalidArgumentError("uncertainty", "a result without its profile and model", "a fit from fitProfile, or (result, profile, model)");
+  return new UncertaintyWidget(result, a as Profile, model, options);
 }

@@ -37,7 +37,7 @@ export interface BootstrapSummary {
   /** Draws of each free parameter and derived quantity (converged refits only). */
   draws: Record<string, Float64Array>;
   /** Sample standard deviation of the draws. */
-  stderr: Record<string, number>;
+  uncertainty: Record<string, number>;
   /** Percentile interval at `level`. */
   interval: Record<string, [number, number]>;
   level: number;
@@ -92,7 +92,7 @@ export function bootstrap(result: FitResult, profile: Profile, model: Model, opt
     result.freeNames.forEach((name, k) => collected[k].push(values[name]));
     Object.values(options.derived ?? {}).forEach((fn, d) => collected[result.freeNames.length + d].push(fn(values)));
   }
-  const draws: Record<string, Float64Array> = {}, stderr: Record<string, number> = {}, interval: Record<string, [number, number]> = {};
+  const draws: Record<string, Float64Array> = {}, uncertainty: Record<string, number> = {}, interval: Record<string, [number, number]> = {};
   names.forEach((name, k) => {
     const values = Float64Array.from(collected[k]);
     draws[name] = values;
@@ -102,8 +102,8 @@ export function bootstrap(result: FitResult, profile: Profile, model: Model, opt
     mean /= Math.max(sorted.length, 1);
     let ss = 0;
     for (const v of sorted) ss += (v - mean) ** 2;
-    stderr[name] = sorted.length > 1 ? Math.sqrt(ss / (sorted.length - 1)) : NaN;
+    uncertainty[name] = sorted.length > 1 ? Math.sqrt(ss / (sorted.length - 1)) : NaN;
     interval[name] = [quantileSorted(sorted, (1 - level) / 2), quantileSorted(sorted, (1 + level) / 2)];
   });
-  return { draws, stderr, interval, level, method, failed, cancelled };
+  return { draws, uncertainty, interval, level, method, failed, cancelled };
 }

@@ -173,7 +173,7 @@ export function fitJoint(datasets: JointDataset[], shared: string[], options: Fi
     res.covariance = block;
     res.freeNames.forEach((name, k) => {
       const p = res.parameters.find((x) => x.name === name)!;
-      p.stderr = cov.stderr[columns[d][k]];
+      p.uncertainty = cov.stderr[columns[d][k]];
     });
     for (let a = 0; a < local; a++) for (let b = 0; b < local; b++) {
       const sa = Math.sqrt(block[a * local + a]), sb = Math.sqrt(block[b * local + b]);

@@ -80,7 +80,7 @@ export function fitWithStarts(profile: Profile, model: Model, options: FitOption
 /** Summarizes the best outcome and adds `starts` and any "starts-disagree" warning. */
 function withStarts(prep: PreparedFit, search: SearchResult, warnings: FitWarning[], method: string): FitResult {
   const result = summarize(prep, search.best, warnings);
-  const uncertainty = result.freeNames.map((name) => result.parameters.find((p) => p.name === name)!.stderr);
+  const uncertainty = result.freeNames.map((name) => result.parameters.find((p) => p.name === name)!.uncertainty);
   const { starts, warning } = summarizeStarts(prep, search, uncertainty, method);
   if (warning) result.warnings.push(warning);
   result.starts = starts;

@@ -3,6 +3,7 @@
  */
 import { InvalidArgumentError } from "../errors.js";
 import type { Model, ParameterSpec } from "../physics/model.js";
+import { rememberModelSource } from "../physics/modelSource.js";
 import { compileFormula, freeSymbols, type CompiledFormula } from "./formula.js";
 
 /** Options of {@link formulaModel}. */
@@ -64,5 +65,5 @@ export function formulaModel(expression: string, options: FormulaModelOptions = 
       if (out) compiled.evaluate(vectors, params, out);
     };
   }
-  return model;
+  return rememberModelSource(model, { id: model.id, options: {}, formula: { expression, variable, parameters: parameters.map((p) => ({ ...p })) } });
 }

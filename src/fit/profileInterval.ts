@@ -74,7 +74,7 @@ export function profileInterval(result: FitResult, profile: Profile, model: Mode
   const side = (direction: 1 | -1): { end: number; open: boolean } => {
     starts = { ...base.start };
     const limit = direction > 0 ? parameter.upper : parameter.lower;
-    const se = Number.isFinite(parameter.stderr) && parameter.stderr > 0 ? parameter.stderr : Math.abs(parameter.value) * 1e-3 || 1e-6;
+    const se = Number.isFinite(parameter.uncertainty) && parameter.uncertainty > 0 ? parameter.uncertainty : Math.abs(parameter.value) * 1e-3 || 1e-6;
     let inside = parameter.value, insideExcess = -threshold;
     let step = z * se;
     for (let expand = 0; expand < 30; expand++) {
@@ -96,7 +96,7 @@ export function profileInterval(result: FitResult, profile: Profile, model: Mode
 
   // Regula falsi (Illinois variant) between a point inside (g < 0) and one outside (g ≥ 0).
   const refine = (a: number, ga: number, b: number, gb: number): number => {
-    const tolerance = 1e-4 * (Number.isFinite(parameter.stderr) && parameter.stderr > 0 ? parameter.stderr : Math.abs(b - a));
+    const tolerance = 1e-4 * (Number.isFinite(parameter.uncertainty) && parameter.uncertainty > 0 ? parameter.uncertainty : Math.abs(b - a));
     let side = 0;
     for (let it = 0; it < 40 && Math.abs(b - a) > tolerance; it++) {
       const c = (a * gb - b * ga) / (gb - ga);

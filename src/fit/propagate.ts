@@ -26,8 +26,8 @@ export interface Propagated {
   /** g at the fitted parameters. */
   value: number;
   /** Standard uncertainty of g (delta method, or the SD of the draws). */
-  stderr: number;
-  /** Interval at `level`: value ± z·stderr (delta) or percentiles of the draws (Monte Carlo). */
+  uncertainty: number;
+  /** Interval at `level`: value ± z·uncertainty (delta) or percentiles of the draws (Monte Carlo). */
   interval: [number, number];
   level: number;
   method: "delta" | "monte-carlo";
@@ -68,9 +68,9 @@ export function propagate(result: FitResult, fn: (values: Record<string, number>
     }
     let variance = 0;
     for (let a = 0; a < q; a++) for (let b = 0; b < q; b++) variance += grad[a] * result.covariance[a * q + b] * grad[b];
-    const stderr = Math.sqrt(Math.max(variance, 0));
+    const uncertainty = Math.sqrt(Math.max(variance, 0));
     const z = zOf(level);
-    return { value, stderr, interval: [value - z * stderr, value + z * stderr], level, method };
+    return { value, uncertainty, interval: [value - z * uncertainty, value + z * uncertainty], level, method };
   }
   if (method !== "monte-carlo") throw new InvalidArgumentError("method", method, `"delta" or "monte-carlo"`);
   const samples = options.samples ?? 10000;
@@ -96,9 +96,9 @@ export function propagate(result: FitResult, fn: (values: Record<string, number>
   mean /= sorted.length;
   let ss = 0;
   for (const g of sorted) ss += (g - mean) ** 2;
-  const stderr = Math.sqrt(ss / (sorted.length - 1));
+  const uncertainty = Math.sqrt(ss / (sorted.length - 1));
   return {
-    value, stderr, level, method, dropped, draws: Float64Array.from(draws),
+    value, uncertainty, level, method, dropped, draws: Float64Array.from(draws),
     interval: [quantileSorted(sorted, (1 - level) / 2), quantileSorted(sorted, (1 + level) / 2)],
   };
 }

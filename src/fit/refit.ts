@@ -25,11 +25,19 @@ export function optionsFromResult(result: FitResult, model: Model, given?: FitOp
       if (spec?.fixedByDefault) free.push(p.name);
     }
   }
+  // Solver settings the fit recorded (robust scale, tolerance, evaluation limit, …) carry over
+  // unless given again; the parameter plan always comes from the result.
+  const recorded = result.source?.options ?? {};
+  const carried: FitOptions = {};
+  for (const key of ["robustScale", "tolerance", "maxEvaluations", "geodesic", "sigmaAbsolute"] as const) {
+    if (recorded[key] !== undefined) (carried as Record<string, unknown>)[key] = recorded[key];
+  }
   return {
+    ...carried,
     ...given,
     fix, tie, bounds, start, free,
     noise: result.noise,
-    sigmaAbsolute: given?.sigmaAbsolute ?? (result.noise === "gaussian" ? !result.covarianceScaled : undefined),
+    sigmaAbsolute: given?.sigmaAbsolute ?? carried.sigmaAbsolute ?? (result.noise === "gaussian" ? !result.covarianceScaled : undefined),
     autoStart: false,
   };
 }

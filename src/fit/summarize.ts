@@ -65,7 +65,7 @@ export function summarize(prep: PreparedFit, outcome: SolverOutcome, extraWarnin
     if (k >= 0) stderr = cov.stderr[k];
     else if (plan.tiedExpression[j] !== null) stderr = tiedStderr(prep, full, j, cov.covariance);
     return {
-      name: spec.name, unit: spec.unit, value: full[j], stderr,
+      name: spec.name, unit: spec.unit, value: full[j], uncertainty: stderr,
       fixed: k < 0 && plan.tiedExpression[j] === null, tied: plan.tiedExpression[j],
       atBound, lower: k >= 0 ? plan.lower[k] : spec.lower, upper: k >= 0 ? plan.upper[k] : spec.upper,
     };

@@ -1,3 +1,5 @@
+import type { ModelSource } from "../physics/modelSource.js";
+
 /**
  * Result types shared by the fitter, comparison, reports, the command line and widgets.
  * A fit that fails is a FitResult with converged = false, never an exception.
@@ -28,7 +30,7 @@ export interface FitParameter {
   /** Best-fit value (SI). */
   value: number;
   /** Standard uncertainty (SI); 0 for fixed parameters, Infinity when it cannot be estimated. */
-  stderr: number;
+  uncertainty: number;
   fixed: boolean;
   /** Expression this parameter is tied to, or null. */
   tied: string | null;
@@ -97,6 +99,8 @@ export interface FitResult {
   goodness: GoodnessOfFit;
   /** How the global stage went: candidate starts tried, converged, and in agreement with the best (fitProfile only). */
   starts?: StartsSummary;
+  /** What the fit was made from (model, options, data fingerprint); set by the public fitProfile. */
+  source?: FitSource;
 }
 
 /**
@@ -114,6 +118,20 @@ export interface StartsSummary {
   agreeing: number;
   /** Where the candidates came from, e.g. "far-field spectrum", "near-field shadow edges", "given start". */
   method: string;
+}
+
+/** What a fit was made from, so later steps (intervals, replay, comparison) need nothing else. */
+export interface FitSource {
+  /** The model: registry id and options, or formula text. */
+  model: ModelSource;
+  /** Fit options as given (callbacks and abort signals left out); JSON-safe. */
+  options: Record<string, unknown>;
+  /** profileFingerprint of the data (x, y, σ, mask). */
+  fingerprint: string;
+  /** The data file's name and SHA-256 when the profile was read from a file, else null. */
+  file: { source: string; sha256: string } | null;
+  /** Points in the profile (masked ones included). */
+  points: number;
 }
 
 /** Progress of a running fit, reported once per solver iteration. */

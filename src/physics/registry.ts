@@ -3,6 +3,7 @@
  */
 import { InvalidArgumentError } from "../errors.js";
 import type { Model, ParameterSpec } from "./model.js";
+import { rememberModelSource } from "./modelSource.js";
 import { twoSlitModel } from "./twoSlit.js";
 import { nSlitModel, singleSlitModel } from "./nSlit.js";
 import { twoBeamModel } from "./twoBeam.js";
@@ -75,7 +76,7 @@ export function getModel(id: string, options: ModelOptions = {}): Model {
   const entry = Object.hasOwn(ENTRIES, id) ? ENTRIES[id] : undefined;
   if (!entry) throw new InvalidArgumentError("model id", id, `one of ${Object.keys(ENTRIES).join(", ")}`);
   checkOptions(options);
-  return entry.create(options);
+  return rememberModelSource(entry.create(options), { id, options: { ...options } });
 }
 
 const OPTION_NAMES = ["smallAngle", "pixelNodes", "blurNodes", "spectrum"];

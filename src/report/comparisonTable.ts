@@ -6,7 +6,7 @@
 import { InvalidArgumentError } from "../errors.js";
 import type { FitResult } from "../fit/types.js";
 import { compareFits } from "../stats/compareFits.js";
-import type { ComparisonResult, Criterion } from "../stats/comparisonTypes.js";
+import type { ComparisonResult, Criterion, ModelComparisonRow } from "../stats/comparisonTypes.js";
 import type { NestedTestResult } from "../stats/nested.js";
 import { pText } from "../stats/residualDiagnostics.js";
 import { DOUBTFUL_CODES, fixed, NOISE_WORDS } from "./fitTable.js";
@@ -30,22 +30,8 @@ export interface ComparisonTableOptions {
   notes?: string[];
 }
 
-/** Numbers of one comparison row; also used by figures and results files. */
-export interface ComparisonRow {
-  label: string;
-  modelId: string;
-  /** False for a fit that did not converge: Δ = ∞ and weight 0. */
-  converged: boolean;
-  k: number;
-  reducedChi2: number;
-  logLikelihood: number;
-  aic: number;
-  deltaAic: number;
-  /** Weight under the ranking criterion (Akaike weight by default). */
-  weight: number;
-  bic: number;
-  deltaBic: number;
-}
+/** Numbers of one comparison row (the comparison's own row type, without diagnostics); also used by figures and results files. */
+export type ComparisonRow = Pick<ModelComparisonRow, "label" | "modelId" | "converged" | "k" | "reducedChi2" | "logLikelihood" | "aic" | "deltaAic" | "weight" | "bic" | "deltaBic">;
 
 /**
  * AIC/BIC ranking of fits to the same data, best first: the rows of stats' `compareFits`

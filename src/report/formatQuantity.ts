@@ -101,10 +101,10 @@ export function formatQuantity(
  */
 export function formatParameter(parameter: FitParameter, options: FormatOptions = {}): FormattedQuantity {
   if (parameter.fixed) return formatQuantity(parameter.value, 0, parameter.unit, options, "fixed");
-  if (parameter.tied !== null) return formatQuantity(parameter.value, parameter.stderr, parameter.unit, options, "tied");
+  if (parameter.tied !== null) return formatQuantity(parameter.value, parameter.uncertainty, parameter.unit, options, "tied");
   const note: QuantityNote | null =
     parameter.atBound === "lower" ? "at lower bound" : parameter.atBound === "upper" ? "at upper bound" : null;
-  return formatQuantity(parameter.value, parameter.stderr, parameter.unit, options, note);
+  return formatQuantity(parameter.value, parameter.uncertainty, parameter.unit, options, note);
 }
 
 /** Replace ASCII "-" by the typographic minus U+2212 in a number string. */

@@ -62,13 +62,13 @@ export function derivedQuantities(fit: FitResult, options: DerivedOptions = {}):
   }
   const visibility = findFitParameter(fit, "visibility");
   if (visibility && options.intensityRatio && has("separation")) {
-    report.quantities.push(degreeOfCoherence({ value: visibility.value, uncertainty: visibility.stderr }, options.intensityRatio));
+    report.quantities.push(degreeOfCoherence({ value: visibility.value, uncertainty: visibility.uncertainty }, options.intensityRatio));
   }
   const bandwidth = findFitParameter(fit, "bandwidth");
   const wavelength = findFitParameter(fit, "wavelength");
   if (bandwidth && wavelength && bandwidth.value > 0) {
-    const lambda = calibration.wavelength ?? { value: wavelength.value, uncertainty: wavelength.stderr };
-    report.quantities.push(coherenceLength(lambda, { value: bandwidth.value, uncertainty: bandwidth.stderr }));
+    const lambda = calibration.wavelength ?? { value: wavelength.value, uncertainty: wavelength.uncertainty };
+    report.quantities.push(coherenceLength(lambda, { value: bandwidth.value, uncertainty: bandwidth.uncertainty }));
   }
   if (fit.modelId === "coherence-disc" || fit.modelId === "coherence-gaussian") {
     const size = sourceSize(fit, calibration, options.level ?? 0.95);

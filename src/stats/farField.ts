@@ -88,7 +88,7 @@ function nearFieldLacks(fit: FitResult): string[] {
   for (const p of fit.parameters) {
     if (nearNames.has(p.name) || !(p.name in NEUTRAL)) continue;
     const neutral = NEUTRAL[p.name]!;
-    const away = p.fixed ? p.value !== neutral : !(Math.abs(p.value - neutral) <= 2 * (Number.isFinite(p.stderr) ? p.stderr : 0));
+    const away = p.fixed ? p.value !== neutral : !(Math.abs(p.value - neutral) <= 2 * (Number.isFinite(p.uncertainty) ? p.uncertainty : 0));
     if (away) lacking.push(WORDS[p.name] ?? p.name);
   }
   return lacking;

@@ -77,7 +77,7 @@ describe("spreadsheetSafe(text), batchCsv(rows)", () => {
   it("batchCsv: a file named =HYPERLINK(...) and a message starting with - are quoted text; negative numbers stay numbers", () => {
     const csv = batchCsv([
       { file: '=HYPERLINK("http://x","y")', status: "error", message: "-bad", fit: null },
-      { file: "ok.csv", status: "ok", message: "done", fit: { model: "m", converged: true, reason: "r", params: { phase: { value: -0.5, stderr: 0.1, unit: "rad", fixed: false } }, stats: { n: 3, dof: 2, chi2: 1, reducedChi2: 0.5, logLikelihood: -1, aic: -2.5, aicc: 1, bic: 1 }, warnings: [], goodness: null, provenance: null } },
+      { file: "ok.csv", status: "ok", message: "done", fit: { model: "m", converged: true, reason: "r", params: { phase: { value: -0.5, uncertainty: 0.1, unit: "rad", fixed: false } }, stats: { n: 3, dof: 2, chi2: 1, reducedChi2: 0.5, logLikelihood: -1, aic: -2.5, aicc: 1, bic: 1 }, warnings: [], goodness: null, provenance: null } },
     ]);
     const rows = csv.trim().split("\n");
     expect(rows[1]).toBe(`"'=HYPERLINK(""http://x"",""y"")",error,'-bad,,,,,,`);

@@ -2,7 +2,7 @@ import { mkdirSync, mkdtempSync, readFileSync, rmSync, writeFileSync } from "nod
 import { tmpdir } from "node:os";
 import { join } from "node:path";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { getModel, pixelPositions, simulateProfile } from "../../src/index.js";
+import { getModel, pixelPositions, simulateProfile } from "../../src/advanced.js";
 import { runCli, runInProcess } from "./runCli.js";
 
 // B1-like camera line (../shared/bench/PROBLEMS.md) with fewer pixels; the truth is what the
@@ -40,12 +40,12 @@ describe("fringekit fit FILE", () => {
     expect(Object.keys(json.stats)).toEqual(["n", "dof", "chi2", "reducedChi2", "logLikelihood", "aic", "aicc", "bic"]);
     expect(json.model).toBe("two-slit");
     expect(json.converged).toBe(true);
-    expect(Object.keys(json.params.separation)).toEqual(["value", "stderr", "unit", "fixed"]);
+    expect(Object.keys(json.params.separation)).toEqual(["value", "uncertainty", "unit", "fixed"]);
     for (const name of ["separation", "width", "visibility", "center"] as const) {
       const p = json.params[name];
-      expect(Math.abs(p.value - TRUTH[name]) / p.stderr, name).toBeLessThan(4);
+      expect(Math.abs(p.value - TRUTH[name]) / p.uncertainty, name).toBeLessThan(4);
     }
-    expect(json.params.wavelength).toMatchObject({ value: 632.8e-9, stderr: 0, unit: "m", fixed: true });
+    expect(json.params.wavelength).toMatchObject({ value: 632.8e-9, uncertainty: 0, unit: "m", fixed: true });
     expect(json.stats.n).toBe(2048);
     expect(json.provenance.source).toBe("line.csv");
     expect(json.provenance.sha256).toMatch(/^[0-9a-f]{64}$/);
@@ -207,7 +207,7 @@ describe("fringekit batch FILES --out", () => {
     expect(stderr).toMatch(/4 files: 3 fitted, 0 did not converge, 1 could not be read or fitted/);
     const rows = readFileSync(out, "utf8").trim().split("\n");
     expect(rows).toHaveLength(5);
-    expect(rows[0]).toMatch(/^file,status,message,n,reducedChi2,aic,bic,amplitude,amplitude_stderr,/);
+    expect(rows[0]).toMatch(/^file,status,message,n,reducedChi2,aic,bic,amplitude,amplitude_uncertainty,/);
     expect(rows[1]).toMatch(/b1\.csv,ok,/);
     expect(rows[3]).toMatch(/bad\.csv,error,.*duplicated position 0\.1/);
     expect(rows[4]).toMatch(/b3\.csv,ok,/);

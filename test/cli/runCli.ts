@@ -16,7 +16,7 @@ export function runCli(args: string[], options: { cwd?: string; timeout?: number
 
 /** True when the built library has the fitter (src/fit's fitProfile). */
 export async function hasFitter(): Promise<boolean> {
-  const lib = (await import(new URL("../../dist/src/index.js", import.meta.url).href)) as Record<string, unknown>;
+  const lib = (await import(new URL("../../dist/src/advanced.js", import.meta.url).href)) as Record<string, unknown>;
   return typeof lib["fitProfile"] === "function";
 }
 

@@ -22,7 +22,7 @@ describe("fitProfile coverage over 400 seeded B1-like simulations", () => {
       runs++;
       for (const name of ["separation", "visibility"] as const) {
         const p = result.parameters.find((q) => q.name === name)!;
-        if (Math.abs(p.value - truth[name]) <= p.stderr) covered[name]++;
+        if (Math.abs(p.value - truth[name]) <= p.uncertainty) covered[name]++;
       }
     }
     const rate = { separation: covered.separation / runs, visibility: covered.visibility / runs };

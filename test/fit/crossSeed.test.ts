@@ -1,7 +1,7 @@
 // Model comparison fits (fitCandidates): each candidate also starts from the others' geometry.
 // Near-field profile simulated with NumPy/SciPy from the Fresnel-integral expression (simulateReference.ts).
 import { describe, expect, it } from "vitest";
-import { fitCandidates, fitProfile, formulaModel } from "../../src/fit/index.js";
+import { fitCandidates, fitProfileResult as fitProfile, formulaModel } from "../../src/fit/index.js";
 import { getModel } from "../../src/physics/index.js";
 import { compareFits } from "../../src/stats/index.js";
 import { referenceProfiles, scipyMissing } from "./simulateReference.js";
@@ -39,7 +39,7 @@ describe("fitCandidates(profile, candidates)", () => {
     const fits = fitCandidates(profile, [{ model: getModel("two-slit"), options: { fix } }, { model: getModel("two-slit-fresnel"), options: { fix } }]);
     const near = fits[1];
     const separation = near.parameters.find((p) => p.name === "separation")!;
-    expect(Math.abs(separation.value - 1.5e-3)).toBeLessThanOrEqual(4 * separation.stderr);
+    expect(Math.abs(separation.value - 1.5e-3)).toBeLessThanOrEqual(4 * separation.uncertainty);
     const result = compareFits(fits.map((fit) => ({ fit, profile })), { profile });
     // Without a failed fit the near field is preferred; a far-field fit flagged as failed
     // (poor-fit, from the goodness-of-fit check) leaves no preference, naming that fit.

@@ -48,7 +48,7 @@ print(json.dumps({"x": x.tolist(), "y": y.tolist(), "clipped": int((y == 4095).s
     expect(warning?.message).toMatch(new RegExp(`^${sim.clipped} saturated samples \\(at the detector top code 4095\\) masked at x = `));
     const v = fit.parameters.find((p) => p.name === "visibility")!;
     // Truth 0.80 (the simulation above); within 4 standard uncertainties.
-    expect(Math.abs(v.value - 0.8)).toBeLessThan(4 * v.stderr);
+    expect(Math.abs(v.value - 0.8)).toBeLessThan(4 * v.uncertainty);
     const kept = parseTable(text, { source: "clipped.csv", maskSaturated: false });
     const biased = fitProfile(kept.profile, getModel("two-slit"), { fix: GEOMETRY });
     expect(biased.warnings.map((w) => w.code)).toContain("saturated-kept");

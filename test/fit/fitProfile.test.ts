@@ -31,7 +31,7 @@ describe("fitProfile(profile, formulaModel(...)) on NIST StRD", () => {
       expect(result.converged).toBe(true);
       result.parameters.forEach((p, j) => {
         expect(Math.abs(p.value - data.certified[j]) / Math.abs(data.certified[j])).toBeLessThan(1e-6);
-        expect(Math.abs(p.stderr - data.certifiedSd[j]) / data.certifiedSd[j]).toBeLessThan(1e-4);
+        expect(Math.abs(p.uncertainty - data.certifiedSd[j]) / data.certifiedSd[j]).toBeLessThan(1e-4);
       });
       expect(result.statistics.chi2).toBeCloseTo(data.certifiedRss, 4);
     });
@@ -49,7 +49,7 @@ describe("fitProfile(b1Profile, two-slit) against SciPy least_squares", () => {
       const ref = scipy.values[p.name], refErr = scipy.stderr[p.name];
       // same optimum: agreement far inside one standard error
       expect(Math.abs(p.value - ref)).toBeLessThan(1e-3 * refErr);
-      expect(Math.abs(p.stderr - refErr) / refErr).toBeLessThan(0.01);
+      expect(Math.abs(p.uncertainty - refErr) / refErr).toBeLessThan(0.01);
     }
   });
 });
@@ -67,7 +67,7 @@ describe("fitProfile(profile, model, options)", () => {
     expect(result.statistics.reducedChi2).toBeGreaterThan(0.85);
     expect(result.statistics.reducedChi2).toBeLessThan(1.15);
     for (const p of result.parameters.filter((q) => !q.fixed)) {
-      expect(Math.abs(p.value - truth[p.name as keyof typeof truth]) / p.stderr).toBeLessThan(4);
+      expect(Math.abs(p.value - truth[p.name as keyof typeof truth]) / p.uncertainty).toBeLessThan(4);
     }
   });
 
@@ -80,7 +80,7 @@ describe("fitProfile(profile, model, options)", () => {
     expect(byName.phase.fixed).toBe(true);
     expect(byName.width.tied).toBe("separation / 5");
     expect(byName.width.value).toBeCloseTo(byName.separation.value / 5, 15);
-    expect(byName.width.stderr).toBeCloseTo(byName.separation.stderr / 5, 15);
+    expect(byName.width.uncertainty).toBeCloseTo(byName.separation.uncertainty / 5, 15);
     expect(byName.visibility.atBound).toBe("upper");
     expect(result.warnings.some((w) => w.code === "at-bound" && w.parameter === "visibility")).toBe(true);
     expect(result.freeNames).not.toContain("width");
@@ -106,7 +106,7 @@ describe("fitProfile(profile, model, options)", () => {
     expect(robust.warnings.some((w) => w.code === "outliers-flagged")).toBe(true);
     const clean = fitProfile(profile, model, { fix: { pixelWidth: 11e-6 }, noise: "gaussian" });
     const sep = (r: typeof robust): number => r.parameters.find((p) => p.name === "separation")!.value;
-    expect(Math.abs(sep(robust) - sep(clean))).toBeLessThan(clean.parameters.find((p) => p.name === "separation")!.stderr);
+    expect(Math.abs(sep(robust) - sep(clean))).toBeLessThan(clean.parameters.find((p) => p.name === "separation")!.uncertainty);
   });
 
   it("throws InvalidArgumentError before work for unknown names, bad bounds and non-finite data", () => {
@@ -148,7 +148,7 @@ describe("fitProfile(profile, model, options)", () => {
   it("reports an infinite uncertainty and a warning for parameters the data cannot separate", () => {
     const line: Profile = { x: Float64Array.from([1, 2, 3, 4, 5]), y: Float64Array.from([2.1, 3.9, 6.2, 7.8, 10.1]), yUnit: "1", counts: false };
     const result = fitProfile(line, formulaModel("a*b*x"), { start: { a: 1, b: 1 } });
-    expect(result.parameters.every((p) => p.stderr === Infinity)).toBe(true);
+    expect(result.parameters.every((p) => p.uncertainty === Infinity)).toBe(true);
     expect(result.warnings.some((w) => w.code === "singular-covariance")).toBe(true);
   });
 });
@@ -185,7 +185,7 @@ describe("fitProfile(profile, getModel(id)) with automatic starts across model f
       expect(result.converged).toBe(true);
       for (const [name, value] of Object.entries(truth)) {
         const p = result.parameters.find((q) => q.name === name)!;
-        expect(Math.abs(p.value - value) / p.stderr).toBeLessThan(4);
+        expect(Math.abs(p.value - value) / p.uncertainty).toBeLessThan(4);
       }
     });
   }
@@ -208,7 +208,7 @@ describe("fitProfile(counts, formulaModel, { noise: \"poisson\" }) against SciPy
     expect(ours.statistics.objective).toBeCloseTo(reference.deviance, 6);
     ours.parameters.forEach((p, j) => {
       expect(Math.abs(p.value - reference.values[j])).toBeLessThan(1e-4 * reference.stderr[j]);
-      expect(Math.abs(p.stderr / reference.stderr[j] - 1)).toBeLessThan(1e-4);
+      expect(Math.abs(p.uncertainty / reference.stderr[j] - 1)).toBeLessThan(1e-4);
     });
   });
 });

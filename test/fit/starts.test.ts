@@ -2,7 +2,7 @@
 // (NumPy/SciPy with the published expressions, see simulateReference.ts). Every fit is given only
 // what a user knows (wavelength, distance, slit count, source distance) and no starting values.
 import { describe, expect, it } from "vitest";
-import { fitProfile, formulaModel, type FitResult } from "../../src/fit/index.js";
+import { fitProfileResult as fitProfile, formulaModel, type FitResult } from "../../src/fit/index.js";
 import { getModel } from "../../src/physics/index.js";
 import { referenceProfiles, scipyMissing, type ReferenceCase } from "./simulateReference.js";
 
@@ -12,7 +12,7 @@ function expectWithin(fit: FitResult, truth: Record<string, number>, names: stri
     const p = fit.parameters.find((q) => q.name === name)!;
     let diff = p.value - truth[name];
     if (name === "phase") diff -= 2 * Math.PI * Math.round(diff / (2 * Math.PI));
-    if (!(Math.abs(diff) <= k * p.stderr)) throw new Error(`${fit.modelId} ${name}: ${p.value} ± ${p.stderr}, truth ${truth[name]}`);
+    if (!(Math.abs(diff) <= k * p.uncertainty)) throw new Error(`${fit.modelId} ${name}: ${p.value} ± ${p.uncertainty}, truth ${truth[name]}`);
   }
 }
 

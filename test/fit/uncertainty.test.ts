@@ -22,14 +22,14 @@ function lineProfile(): Profile {
 const line = formulaModel("a + b*x");
 
 describe("profileInterval(result, profile, model, name, level)", () => {
-  it("equals value ± z·stderr for a linear model with absolute σ (exact for linear least squares, common practice)", () => {
+  it("equals value ± z·uncertainty for a linear model with absolute σ (exact for linear least squares, common practice)", () => {
     const profile = lineProfile();
     const result = fitProfile(profile, line, { start: { a: 1, b: 1 }, sigmaAbsolute: true, noise: "gaussian" });
     const b = result.parameters[1];
     const interval = profileInterval(result, profile, line, "b", 0.95);
     const z = 1.959963984540054; // Φ⁻¹(0.975), A&S Table 26.5
-    expect(interval.lower).toBeCloseTo(b.value - z * b.stderr, 6);
-    expect(interval.upper).toBeCloseTo(b.value + z * b.stderr, 6);
+    expect(interval.lower).toBeCloseTo(b.value - z * b.uncertainty, 6);
+    expect(interval.upper).toBeCloseTo(b.value + z * b.uncertainty, 6);
   });
 
   it("matches SciPy brentq on the Poisson deviance of a constant rate (asymmetric 95 % interval)", () => {
@@ -76,16 +76,16 @@ describe("propagate(result, fn, options)", () => {
   it("delta method for a/b equals the first-order formula with correlation (JCGM 100:2008 eq. 13)", () => {
     const out = propagate(result, (p) => p.a / p.b);
     const g = a.value / b.value;
-    const expected = Math.abs(g) * Math.sqrt((a.stderr / a.value) ** 2 + (b.stderr / b.value) ** 2 - (2 * cov[1]) / (a.value * b.value));
+    const expected = Math.abs(g) * Math.sqrt((a.uncertainty / a.value) ** 2 + (b.uncertainty / b.value) ** 2 - (2 * cov[1]) / (a.value * b.value));
     expect(out.value).toBeCloseTo(g, 14);
-    expect(Math.abs(out.stderr - expected) / expected).toBeLessThan(1e-6);
+    expect(Math.abs(out.uncertainty - expected) / expected).toBeLessThan(1e-6);
   });
 
   it("Monte Carlo agrees with the exact variance of a linear function a + 2b (JCGM 101:2008)", () => {
     const out = propagate(result, (p) => p.a + 2 * p.b, { method: "monte-carlo", samples: 20000, seed: 3 });
     const exact = Math.sqrt(cov[0] + 4 * cov[3] + 4 * cov[1]);
     // 20000 draws: relative standard error of an SD ≈ 1/√(2·20000) = 0.5 %
-    expect(Math.abs(out.stderr - exact) / exact).toBeLessThan(0.02);
+    expect(Math.abs(out.uncertainty - exact) / exact).toBeLessThan(0.02);
     expect(out.interval[0]).toBeLessThan(out.value);
     expect(out.interval[1]).toBeGreaterThan(out.value);
   });
@@ -100,7 +100,7 @@ describe("bootstrap(result, profile, model, options)", () => {
       expect(boot.failed).toBe(0);
       expect(boot.draws.b.length).toBe(300);
       // 300 samples: relative SE of an SD ≈ 4 %; the residual bootstrap also carries the sample's own χ²/dof.
-      expect(Math.abs(boot.stderr.b / result.parameters[1].stderr - 1)).toBeLessThan(method === "parametric" ? 0.15 : 0.3);
+      expect(Math.abs(boot.uncertainty.b / result.parameters[1].uncertainty - 1)).toBeLessThan(method === "parametric" ? 0.15 : 0.3);
       expect(boot.interval.ratio[0]).toBeLessThan(boot.interval.ratio[1]);
     }
     const again = bootstrap(result, profile, line, { samples: 20, seed: 9 });
@@ -125,8 +125,8 @@ describe("fitJoint(datasets, shared, options)", () => {
     const pick = (r: typeof single, name: string) => r.parameters.find((p) => p.name === name)!;
     for (const name of ["separation", "width"]) {
       expect(pick(joint.results[0], name).value).toBe(pick(joint.results[1], name).value);
-      expect(pick(joint.results[0], name).stderr).toBeLessThan(pick(single, name).stderr);
-      expect(Math.abs(pick(joint.results[0], name).value - truth[name as "separation" | "width"])).toBeLessThan(4 * pick(joint.results[0], name).stderr);
+      expect(pick(joint.results[0], name).uncertainty).toBeLessThan(pick(single, name).uncertainty);
+      expect(Math.abs(pick(joint.results[0], name).value - truth[name as "separation" | "width"])).toBeLessThan(4 * pick(joint.results[0], name).uncertainty);
     }
     expect(joint.freeNames.slice(0, 2)).toEqual(["separation", "width"]);
     expect(joint.statistics.logLikelihood).toBeCloseTo(joint.results[0].statistics.logLikelihood + joint.results[1].statistics.logLikelihood, 8);

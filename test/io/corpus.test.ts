@@ -2,7 +2,7 @@
 // one-line message the user sees. Expected texts are this project's own wording.
 import { readFileSync } from "node:fs";
 import { describe, expect, it } from "vitest";
-import { DataError, readProfile } from "../../src/index.js";
+import { DataError, readProfile } from "../../src/advanced.js";
 
 const corpus = (name: string): Uint8Array => new Uint8Array(readFileSync(new URL(`./corpus/${name}`, import.meta.url)));
 const load = (name: string, options = {}) => readProfile(corpus(name), { source: name, ...options });

@@ -3,7 +3,7 @@
 // is reproducible; the seed and the mutated input's length are printed on failure.
 import { readFileSync } from "node:fs";
 import { describe, expect, it } from "vitest";
-import { FringekitError, readProfile } from "../../src/index.js";
+import { FringekitError, readProfile } from "../../src/advanced.js";
 
 const BUDGET_MS = Number(process.env["FRINGEKIT_FUZZ_MS"] ?? 15_000);
 const valid = ["good.csv", "good-semicolon.csv", "good16.png", "good8.png", "good-rgb8.png", "good16-le.tif", "good16-be.tif", "good-float.tif", "good-stack.tif"]

@@ -1,7 +1,7 @@
 import { readFileSync } from "node:fs";
 import { encode as encodePng } from "fast-png";
 import { describe, expect, it } from "vitest";
-import { createRandom, frameToLine, readImage, readProfile, type ImageStack } from "../../src/index.js";
+import { createRandom, frameToLine, readImage, readProfile, type ImageStack } from "../../src/advanced.js";
 import { writeTiff } from "./writeTiff.js";
 
 const corpus = (name: string): Uint8Array => new Uint8Array(readFileSync(new URL(`./corpus/${name}`, import.meta.url)));

@@ -1,6 +1,6 @@
 import { readFileSync } from "node:fs";
 import { describe, expect, it } from "vitest";
-import { createRandom, measureTilt, readImage } from "../../src/index.js";
+import { createRandom, measureTilt, readImage } from "../../src/advanced.js";
 
 const DEG = Math.PI / 180;
 

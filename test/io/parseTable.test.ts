@@ -1,6 +1,6 @@
 import { readFileSync } from "node:fs";
 import { describe, expect, it } from "vitest";
-import { parseTable, readTable, sha256Hex } from "../../src/index.js";
+import { parseTable, readTable, sha256Hex } from "../../src/advanced.js";
 
 const corpus = (name: string): Uint8Array => new Uint8Array(readFileSync(new URL(`./corpus/${name}`, import.meta.url)));
 

@@ -1,6 +1,6 @@
 import { spawnSync } from "node:child_process";
 import { describe, expect, it } from "vitest";
-import { sha256Hex, utf8Encode } from "../../src/index.js";
+import { sha256Hex, utf8Encode } from "../../src/advanced.js";
 
 const ascii = (text: string): Uint8Array => Uint8Array.from(text, (c) => c.charCodeAt(0));
 

@@ -1,6 +1,6 @@
 import { unit as mathUnit } from "mathjs";
 import { describe, expect, it } from "vitest";
-import { isIntensityUnit, lookupUnitExpression, positionUnitFactor, unitFactor } from "../../src/index.js";
+import { isIntensityUnit, lookupUnitExpression, positionUnitFactor, unitFactor } from "../../src/advanced.js";
 
 // Reference: mathjs 15 (its unit definitions follow SI and the 1959 international yard), run here
 // beside fringekit's own tables, which replaced it at run time for start-up speed.

@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { InvalidArgumentError, isIntensityUnit, parseColumnHeader, parseQuantity, positionUnitFactor } from "../../src/index.js";
+import { InvalidArgumentError, isIntensityUnit, parseColumnHeader, parseQuantity, positionUnitFactor } from "../../src/advanced.js";
 
 // Unit factors are SI prefix definitions (BIPM, The International System of Units, 9th ed., Table 7).
 describe("parseQuantity(text, kind)", () => {

@@ -55,7 +55,7 @@ export function resultAt(model: Model, profile: Profile, truth: Record<string, n
   const parameters: FitParameter[] = model.parameters.map((spec, j) => {
     const a = idx.indexOf(j);
     return {
-      name: spec.name, unit: spec.unit, value: params[j], stderr: a < 0 ? 0 : Math.sqrt(covariance[a * (k + 1)]),
+      name: spec.name, unit: spec.unit, value: params[j], uncertainty: a < 0 ? 0 : Math.sqrt(covariance[a * (k + 1)]),
       fixed: a < 0, tied: null, atBound: null, lower: spec.lower, upper: spec.upper,
     };
   });
@@ -123,7 +123,7 @@ export function profileCurvesExample(): ProfileCurve[] {
   const curve = (name: string, unit: string, best: number, se: number, skew: number): ProfileCurve => {
     const values = Float64Array.from({ length: 21 }, (_, i) => best + ((i - 10) / 10) * 3 * se);
     const delta = values.map((v) => { const t = (v - best) / se; return t * t * (1 + skew * t); });
-    return { name, unit, values, deltaObjective: delta, best, stderr: se };
+    return { name, unit, values, deltaObjective: delta, best, uncertainty: se };
   };
   return [curve("separation", "m", 0.5e-3, 0.4e-6, 0.05), curve("visibility", "1", 0.85, 0.004, -0.08)];
 }

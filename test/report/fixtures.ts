@@ -2,8 +2,8 @@
 import type { FitParameter, FitResult } from "../../src/fit/types.js";
 import { goodnessOfFit } from "../../src/fit/goodness.js";
 
-function param(name: string, unit: string, value: number, stderr: number, extra: Partial<FitParameter> = {}): FitParameter {
-  return { name, unit, value, stderr, fixed: stderr === 0, tied: null, atBound: null, lower: -Infinity, upper: Infinity, ...extra };
+function param(name: string, unit: string, value: number, uncertainty: number, extra: Partial<FitParameter> = {}): FitParameter {
+  return { name, unit, value, uncertainty, fixed: uncertainty === 0, tied: null, atBound: null, lower: -Infinity, upper: Infinity, ...extra };
 }
 
 /** A converged two-slit fit with fixed wavelength and distance (invented numbers). */
@@ -26,7 +26,7 @@ export function makeFitResult(overrides: Partial<FitResult> = {}): FitResult {
   const covariance = new Float64Array(k * k);
   const correlation = new Float64Array(k * k);
   free.forEach((p, i) => {
-    covariance[i * k + i] = p.stderr ** 2;
+    covariance[i * k + i] = p.uncertainty ** 2;
     correlation[i * k + i] = 1;
   });
   const n = 64;

@@ -94,14 +94,14 @@ describe("formatQuantity(value, uncertainty, unit, options)", () => {
 
 describe("formatParameter(parameter, options)", () => {
   const base: FitParameter = {
-    name: "wavelength", unit: "m", value: 6.328e-7, stderr: 0, fixed: true, tied: null,
+    name: "wavelength", unit: "m", value: 6.328e-7, uncertainty: 0, fixed: true, tied: null,
     atBound: null, lower: 0, upper: Infinity,
   };
   it("formatParameter(fixed) prints the value without ± and marks it fixed", () => {
     expect(formatParameter(base).text).toBe("632.8 nm (fixed)");
   });
   it("formatParameter(at upper bound) keeps the numbers and marks the bound", () => {
-    const p = { ...base, name: "visibility", unit: "1", value: 1, stderr: 0.02, fixed: false, atBound: "upper" as const };
+    const p = { ...base, name: "visibility", unit: "1", value: 1, uncertainty: 0.02, fixed: false, atBound: "upper" as const };
     expect(formatParameter(p).text).toBe("1.000 ± 0.020 (at upper bound)");
   });
 });

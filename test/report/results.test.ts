@@ -45,16 +45,25 @@ describe("encodeArray / decodeFloat64", () => {
 });
 
 describe("fitDocument(profile, fit) → stringifyResults → parseResults", () => {
-  it("round-trips the FitResult exactly (Float64Arrays bit for bit, Infinity stderr, NaN residuals)", () => {
+  it("parseResults(text) reads files written before the rename: parameter \"stderr\" becomes \"uncertainty\"", () => {
     const { profile, result } = fileProfile();
-    result.parameters[0].stderr = Infinity; // an unestimable uncertainty must survive
+    const text = stringifyResults(fitDocument(profile, { result }));
+    const old = JSON.parse(text);
+    for (const p of old.fits[0].result.parameters) { p.stderr = p.uncertainty; delete p.uncertainty; }
+    const back = parseResults(JSON.stringify(old));
+    expect(back.fits[0].result.parameters.map((p) => p.uncertainty)).toEqual(result.parameters.map((p) => p.uncertainty));
+    expect(back.fits[0].result.parameters.some((p) => "stderr" in p)).toBe(false);
+  });
+  it("round-trips the FitResult exactly (Float64Arrays bit for bit, Infinity uncertainty, NaN residuals)", () => {
+    const { profile, result } = fileProfile();
+    result.parameters[0].uncertainty = Infinity; // an unestimable uncertainty must survive
     result.warnings.push({ code: "ill-conditioned", message: "cond 1e12 \"quoted\" <b>", parameter: "center" });
     const doc = fitDocument(profile, { result, modelOptions: { pixelNodes: 5 }, fitOptions: { noise: "poisson", bounds: { visibility: [0, 1] }, maxEvaluations: 500, onProgress: () => 0 } }, { seeds: { bootstrap: 42 } });
     const back = parseResults(stringifyResults(doc));
     expect(back.fits[0].result).toEqual(result);
     expect(back.fits[0].result.model).toBeInstanceOf(Float64Array);
     expect(new Uint8Array(back.fits[0].result.residuals.buffer)).toEqual(new Uint8Array(result.residuals.buffer));
-    expect(back.fits[0].result.parameters[0].stderr).toBe(Infinity);
+    expect(back.fits[0].result.parameters[0].uncertainty).toBe(Infinity);
     expect(back.fits[0].fitOptions).toEqual({ noise: "poisson", bounds: { visibility: [0, 1] }, maxEvaluations: 500 });
     expect(back.fits[0].modelOptions).toEqual({ pixelNodes: 5 });
     expect(back.seeds).toEqual({ bootstrap: 42 });
@@ -157,7 +166,7 @@ describe("replayResults(doc, profile, engine)", () => {
     const doc = parseResults(stringifyResults(fitDocument(profile, { result })));
     const report = replayResults(doc, profile, engine((r) => {
       const sep = r.parameters.find((p) => p.name === "separation")!;
-      sep.value += 0.01 * sep.stderr;
+      sep.value += 0.01 * sep.uncertainty;
       r.statistics.chi2 *= 1.001;
       r.warnings.push({ code: "at-bound", message: "", parameter: "visibility" });
       return r;
@@ -171,7 +180,7 @@ describe("replayResults(doc, profile, engine)", () => {
     const doc = parseResults(stringifyResults(fitDocument(profile, { result })));
     const report = replayResults(doc, profile, engine((r) => {
       const sep = r.parameters.find((p) => p.name === "separation")!;
-      sep.value += 1e-4 * sep.stderr;
+      sep.value += 1e-4 * sep.uncertainty;
       return r;
     }));
     expect(report.reproduced).toBe(true);

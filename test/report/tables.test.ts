@@ -174,7 +174,7 @@ describe("fitTable(result, {showInactive})", () => {
   const base = makeFitResult();
   const withOff = {
     ...base,
-    parameters: [...base.parameters, { name: "blur", unit: "m", value: 0, stderr: 0, fixed: true, tied: null, atBound: null, lower: 0, upper: Infinity }],
+    parameters: [...base.parameters, { name: "blur", unit: "m", value: 0, uncertainty: 0, fixed: true, tied: null, atBound: null, lower: 0, upper: Infinity }],
   };
   it("leaves effects fixed at 0 out of the rows and names them in a note", () => {
     const text = fitReport(withOff).toString();

@@ -9,7 +9,7 @@ import { expectClose } from "./python.js";
 const truth = { amplitude: 1000, center: 2e-5, separation: 0.5e-3, width: 0.1e-3, visibility: 0.8, phase: 0.3, wavelength: 632.8e-9, distance: 1 };
 const uSep = 1e-6;
 const fit = fakeFit({ modelId: "two-slit", free: ["amplitude", "center", "separation"], values: truth,
-  stderr: { amplitude: 3, center: 1e-7, separation: uSep }, logLikelihood: -1, chi2: 1, n: 10 });
+  uncertainty: { amplitude: 3, center: 1e-7, separation: uSep }, logLikelihood: -1, chi2: 1, n: 10 });
 
 describe("propagateDerived and fringe geometry", () => {
   it("propagateDerived(fit, calibration, f) adds covariance and calibration terms in quadrature (GUM 5.1.2)", () => {
@@ -135,7 +135,7 @@ describe("localVisibilities", () => {
 describe("derivedQuantities", () => {
   it("derivedQuantities(fit, options) lists every supported quantity with value, uncertainty and unit", () => {
     const broadband = fakeFit({ modelId: "two-slit-broadband", free: ["amplitude", "center", "separation", "visibility", "bandwidth"],
-      values: { ...truth, bandwidth: 2e-9 }, stderr: { amplitude: 3, center: 1e-7, separation: uSep, visibility: 0.01, bandwidth: 0.1e-9 }, logLikelihood: -1, chi2: 1, n: 10 });
+      values: { ...truth, bandwidth: 2e-9 }, uncertainty: { amplitude: 3, center: 1e-7, separation: uSep, visibility: 0.01, bandwidth: 0.1e-9 }, logLikelihood: -1, chi2: 1, n: 10 });
     const report = derivedQuantities(broadband, { intensityRatio: { value: 1, uncertainty: 0.02 } });
     expect(report.quantities.map((q) => q.name)).toEqual(["fringeSpacing", "fringeFrequency", "separation", "fresnelNumber", "offsetNumber", "degreeOfCoherence", "coherenceLength"]);
     for (const q of report.quantities) {

@@ -7,7 +7,7 @@ export interface FakeFitSpec {
   free: string[];
   /** All parameters with values; those not in `free` are fixed. */
   values: Record<string, number>;
-  stderr?: Record<string, number>;
+  uncertainty?: Record<string, number>;
   covariance?: number[];
   logLikelihood: number;
   chi2: number;
@@ -34,7 +34,7 @@ export function seeded(seed: number): { uniform: () => number; normal: () => num
 export function fakeFit(spec: FakeFitSpec): FitResult {
   const k = spec.free.length;
   const names = Object.keys(spec.values);
-  const covariance = new Float64Array(spec.covariance ?? spec.free.flatMap((a) => spec.free.map((b) => (a === b ? (spec.stderr?.[a] ?? 0) ** 2 : 0))));
+  const covariance = new Float64Array(spec.covariance ?? spec.free.flatMap((a) => spec.free.map((b) => (a === b ? (spec.uncertainty?.[a] ?? 0) ** 2 : 0))));
   const residuals = spec.residuals ?? new Float64Array(spec.n).map((_, i) => (i % 2 ? 1 : -1));
   const lnL = spec.logLikelihood;
   return {
@@ -50,7 +50,7 @@ export function fakeFit(spec: FakeFitSpec): FitResult {
       name,
       unit: "1",
       value: spec.values[name],
-      stderr: spec.free.includes(name) ? (spec.stderr?.[name] ?? 0) : 0,
+      uncertainty: spec.free.includes(name) ? (spec.uncertainty?.[name] ?? 0) : 0,
       fixed: !spec.free.includes(name),
       tied: null,
       atBound: null,

@@ -6,7 +6,7 @@ import { expectClose } from "./python.js";
 describe("farFieldValidity", () => {
   const geometry = { amplitude: 1, center: 0, separation: 0.5e-3, width: 0.1e-3, wavelength: 632.8e-9, distance: 1 };
   it("farFieldValidity(fit) computes a²/(λL) with its uncertainty and passes a far-field bench", () => {
-    const fit = fakeFit({ modelId: "two-slit", free: ["amplitude", "width"], values: geometry, stderr: { width: 1e-6 }, logLikelihood: 0, chi2: 1, n: 10 });
+    const fit = fakeFit({ modelId: "two-slit", free: ["amplitude", "width"], values: geometry, uncertainty: { width: 1e-6 }, logLikelihood: 0, chi2: 1, n: 10 });
     const check = farFieldValidity(fit, { distance: { value: 1, uncertainty: 1e-3 } });
     // By hand: (1e-4)²/(632.8e-9 · 1) = 0.015803; relative u = 2 u_a/a ⊕ u_L/L = 0.02 ⊕ 0.001.
     expectClose(check.fresnelNumber.value, 1e-8 / 632.8e-9, 1e-12, "N_F");
@@ -35,19 +35,19 @@ describe("farFieldValidity", () => {
 describe("farFieldValidity(broadband fit in the near field)", () => {
   it("farFieldValidity(fit) never sends a fit with bandwidth or partial coherence to the monochromatic near-field model", () => {
     const near = { amplitude: 1, center: 0, separation: 1e-3, width: 0.44e-3, wavelength: 590e-9, distance: 0.1, visibility: 0.7, bandwidth: 15e-9 };
-    const fit = fakeFit({ modelId: "two-slit-broadband", free: ["amplitude", "visibility", "bandwidth"], values: near, stderr: { visibility: 0.01, bandwidth: 1e-9 }, logLikelihood: 0, chi2: 1, n: 10 });
+    const fit = fakeFit({ modelId: "two-slit-broadband", free: ["amplitude", "visibility", "bandwidth"], values: near, uncertainty: { visibility: 0.01, bandwidth: 1e-9 }, logLikelihood: 0, chi2: 1, n: 10 });
     const check = farFieldValidity(fit);
     expect(check.warning).not.toMatch(/fit "two-slit-fresnel" instead/);
     expect(check.warning).toMatch(/"two-slit-fresnel" has no visibility below 1 \(partial coherence\) or spectral bandwidth, which this fit needs, so no built-in model covers these data: move the detector/);
     // A bandwidth fitted as 0 ± 1 nm and visibility 1 need nothing the near-field model lacks.
-    const neutral = fakeFit({ modelId: "two-slit-broadband", free: ["amplitude", "visibility", "bandwidth"], values: { ...near, visibility: 1, bandwidth: 0.5e-9 }, stderr: { visibility: 0.01, bandwidth: 1e-9 }, logLikelihood: 0, chi2: 1, n: 10 });
+    const neutral = fakeFit({ modelId: "two-slit-broadband", free: ["amplitude", "visibility", "bandwidth"], values: { ...near, visibility: 1, bandwidth: 0.5e-9 }, uncertainty: { visibility: 0.01, bandwidth: 1e-9 }, logLikelihood: 0, chi2: 1, n: 10 });
     expect(farFieldValidity(neutral).warning).toMatch(/fit "two-slit-fresnel" instead/);
   });
 });
 
 describe("sourceSize", () => {
   const values = { visibility: 0.95, diameter: 1e-3, sourceDistance: 2, wavelength: 550e-9 };
-  const fit = fakeFit({ modelId: "coherence-disc", free: ["visibility", "diameter"], values, stderr: { visibility: 0.01, diameter: 2e-5 }, logLikelihood: 0, chi2: 8, n: 10 });
+  const fit = fakeFit({ modelId: "coherence-disc", free: ["visibility", "diameter"], values, uncertainty: { visibility: 0.01, diameter: 2e-5 }, logLikelihood: 0, chi2: 8, n: 10 });
   it("sourceSize(fit, calibration) scales D with the calibrated λR and adds their uncertainties", () => {
     const r = sourceSize(fit, { sourceDistance: { value: 2.02, uncertainty: 0.01 }, wavelength: { value: 550e-9, uncertainty: 0 } });
     // By hand: D = 1 mm × 2.02/2; relative u = 0.02 ⊕ 0.01/2.02.

@@ -1,7 +1,7 @@
 // Checks that need the fitter and the physics models: model choice between near- and far-field
 // models, and recovery of known truths from seeded simulations for the derived quantities.
 import { describe, expect, it } from "vitest";
-import { fitProfile } from "../../src/fit/index.js";
+import { fitProfile } from "../../src/api/index.js";
 import { getModel, paramVector, pixelPositions, simulateProfile, twoSlitSourceModel } from "../../src/physics/index.js";
 import {
   coherenceLength, coherenceScanProfile, compareFits, degreeOfCoherence, farFieldValidity, fitSourceSizeJointly, fringeGeometry, fringeMaxima,
@@ -117,7 +117,7 @@ describe("coherence quantities from seeded fits", () => {
       const profile = simulateProfile(far, paramVector(far, truth), x, { noise: "poisson", seed });
       const fit = fitProfile(profile, far, { start: { ...truth, visibility: 0.7, amplitude: 7000 } });
       const v = fit.parameters.find((p) => p.name === "visibility")!;
-      const g = degreeOfCoherence({ value: v.value, uncertainty: v.stderr }, { value: r, uncertainty: 0.005 });
+      const g = degreeOfCoherence({ value: v.value, uncertainty: v.uncertainty }, { value: r, uncertainty: 0.005 });
       z.push((g.value - gamma) / g.uncertainty);
     }
     zScores(z, "gamma");
@@ -131,7 +131,7 @@ describe("coherence quantities from seeded fits", () => {
       const fit = fitProfile(profile, model, { start: { ...truth, bandwidth: 15e-9, visibility: 0.8 }, free: ["bandwidth"] });
       expect(fit.converged).toBe(true);
       const b = fit.parameters.find((p) => p.name === "bandwidth")!;
-      const lc = coherenceLength({ value: 600e-9, uncertainty: 0 }, { value: b.value, uncertainty: b.stderr });
+      const lc = coherenceLength({ value: 600e-9, uncertainty: 0 }, { value: b.value, uncertainty: b.uncertainty });
       z.push((lc.value - (600e-9) ** 2 / 20e-9) / lc.uncertainty);
     }
     zScores(z, "coherence length");

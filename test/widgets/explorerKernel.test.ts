@@ -71,7 +71,7 @@ describe("explorer (kernel side)", () => {
     // Simulation truth within 3 standard errors (PROBLEMS.md B1 acceptance).
     for (const [name, value] of Object.entries(truth)) {
       const p = result.parameters.find((q) => q.name === name)!;
-      expect(Math.abs(p.value - value)).toBeLessThan(3 * p.stderr);
+      expect(Math.abs(p.value - value)).toBeLessThan(3 * p.uncertainty);
     }
     const updates = kernel.messages.filter((m) => m.msgType === "comm_msg" && m.content.data.method === "update").map((m) => m.content.data.state);
     expect(updates.some((s) => s.fit_state === "running")).toBe(true);

@@ -36,4 +36,31 @@ run("explorer fit in a worker thread", () => {
     expect(ex.widget.get("fit_state")).toBe("cancelled");
     expect(ex.result).toBe(result);
   });
+
+  it("the worker fits exactly the model shown: model options and formula models are rebuilt from their source", async () => {
+    kernel = installFakeKernel();
+    const { explorer } = (await import(compiled)) as typeof import("../../kernel-ext/widgets/explorer.js");
+    const { fitProfileResult } = await import("../../src/advanced.js");
+    // The model must come from the same (compiled) library the explorer runs on, as in a notebook.
+    const { formulaModel } = (await import(path.join(repoRoot, "dist/src/advanced.js"))) as typeof import("../../src/advanced.js");
+    // Wide angles (±10 mm at 5 cm), where small-angle and exact geometry give different fits.
+    const small = getModel("two-slit", { smallAngle: true });
+    const truth = { amplitude: 5000, background: 100, center: 0.1e-3, separation: 0.2e-3, width: 0.04e-3, visibility: 0.9, phase: 0.2, wavelength: 632.8e-9, distance: 0.05 };
+    const profile = simulateProfile(small, paramVector(small, truth), pixelPositions(800, 25e-6, -10e-3), { noise: "poisson", seed: 5 });
+    const ex = explorer(profile, { model: "two-slit", modelOptions: { smallAngle: true }, start: truth });
+    const request = ex.fitRequest();
+    const fit = await ex.fit();
+    const direct = fitProfileResult(request.profile, small, request.options);
+    fit.parameters.forEach((p, j) => expect(p.value).toBeCloseTo(direct.parameters[j].value, 10));
+    // A formula model: before, the worker could only rebuild registry models by id.
+    const line = { x: Float64Array.from({ length: 20 }, (_, i) => i), y: Float64Array.from({ length: 20 }, (_, i) => 1 + 2 * i + (i % 3) - 1), yUnit: "a.u.", counts: false };
+    const exLine = explorer(line, { model: formulaModel("a + b*x"), start: { a: 0, b: 1 } });
+    const lineFit = await exLine.fit();
+    expect(lineFit.source.model.formula?.expression).toBe("a + b*x");
+    // Ordinary least-squares slope Σ(x − x̄)(y − ȳ) / Σ(x − x̄)² (common practice).
+    const mx = 9.5, my = line.y.reduce((a, b) => a + b, 0) / 20;
+    let sxy = 0, sxx = 0;
+    line.x.forEach((x, i) => { sxy += (x - mx) * (line.y[i] - my); sxx += (x - mx) ** 2; });
+    expect(lineFit.params.b.value).toBeCloseTo(sxy / sxx, 8);
+  });
 });

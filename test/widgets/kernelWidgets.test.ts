@@ -56,8 +56,8 @@ describe("kernel-side widgets", () => {
       expect(lower[i]).toBeLessThanOrEqual(center[i]! + 1e-12);
       expect(upper[i]).toBeGreaterThanOrEqual(center[i]! - 1e-12);
     }
-    const size = (model.state.quantities as { name: string; value: number; stderr: number }[]).find((q) => q.name === "rmsSize")!;
+    const size = (model.state.quantities as { name: string; value: number; uncertainty: number }[]).find((q) => q.name === "rmsSize")!;
     // Simulated source rms size 0.12 mm; the fit must find it within 3 standard errors.
-    expect(Math.abs(size.value - 0.12e-3)).toBeLessThan(3 * size.stderr);
+    expect(Math.abs(size.value - 0.12e-3)).toBeLessThan(3 * size.uncertainty);
   });
 });

@@ -9,7 +9,7 @@ import { fileURLToPath } from "node:url";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { installLabExtension } from "../../kernel-ext/widgets/installLab.js";
 import { buildLabExtension, buildWidgetBundles, distDir, labExtensionDir } from "../../widgets/build.js";
-import { MODULE_NAME, MODULE_VERSION } from "../../widgets/src/version.js";
+import { MODULE_NAME, MODULE_VERSION } from "../../widgets/shared/version.js";
 import { hasChromium, launchBrowser, type Browser } from "./browser.js";
 
 const here = path.dirname(fileURLToPath(import.meta.url));

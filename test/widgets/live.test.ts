@@ -154,11 +154,11 @@ run("live notebook: explorer in a real kernel and browser", () => {
     await page.screenshot({ path: path.join(outputDir, "live-explorer-fitted.png"), fullPage: true });
 
     // The same result is readable from cell code.
-    const read = await cell('const s = ex.result.parameters.find((p) => p.name === "separation");\nconsole.log(JSON.stringify({ converged: ex.result.converged, separation: s.value, stderr: s.stderr }));');
-    const kernelResult = JSON.parse(read.text.join("").trim().split("\n").at(-1)!) as { converged: boolean; separation: number; stderr: number };
+    const read = await cell('const s = ex.result.parameters.find((p) => p.name === "separation");\nconsole.log(JSON.stringify({ converged: ex.result.converged, separation: s.value, uncertainty: s.uncertainty }));');
+    const kernelResult = JSON.parse(read.text.join("").trim().split("\n").at(-1)!) as { converged: boolean; separation: number; uncertainty: number };
     expect(kernelResult.converged).toBe(true);
     // Simulation truth within 3 standard errors (B1 acceptance).
-    expect(Math.abs(kernelResult.separation - 0.5e-3)).toBeLessThan(3 * kernelResult.stderr);
+    expect(Math.abs(kernelResult.separation - 0.5e-3)).toBeLessThan(3 * kernelResult.uncertainty);
     const browserSeparation = await page.evaluate(`live.views.find((v) => v.el.closest(${JSON.stringify(host)})).model.get("result").parameters.find((p) => p.name === "separation").value`);
     expect(browserSeparation).toBe(kernelResult.separation);
     expect(pageErrors).toEqual([]);

@@ -12,7 +12,7 @@ import type { FigureSpec } from "../../src/report/figures/figureSpec.js";
 import { fitFigure } from "../../src/report/figures/fitFigure.js";
 import { profileLikelihoodFigure } from "../../src/report/figures/profileLikelihoodFigure.js";
 import { FigureRenderer } from "../../kernel-ext/figures/exportFigure.js";
-import { effectiveMask, paramVector, residuals, type ParamState } from "../../widgets/src/preview.js";
+import { effectiveMask, paramVector, residuals, type ParamState } from "../../widgets/shared/preview.js";
 import { hasChromium } from "./browser.js";
 import { openHarness, type HarnessPage } from "./page.js";
 
@@ -97,7 +97,7 @@ run("widget export buttons save the paper figure (Chromium)", () => {
     const mask = effectiveMask(x, null, null, [[0.2e-3, 0.4e-3]]);
     const curve = new Float64Array(x.length);
     model.evaluate(x, paramVector(model, state.params, new Float64Array(model.parameters.length)), curve);
-    const resid = residuals(y, curve, null, true, mask, new Float64Array(x.length));
+    const resid = residuals(y, curve, null, "sqrt-model", mask, new Float64Array(x.length));
     const figure = fitFigure({ x, y, mask, yUnit: "counts", counts: true }, { modelId: "two-slit", model: curve, residuals: resid }, { modelLabel: "model (sliders)" });
     expect(figure.layout.meta.widthMm).toBe(85); // single column, the builder's default
     const saved = files.get("fringekit-explorer-two-slit.svg")!;
@@ -125,7 +125,7 @@ run("widget export buttons save the paper figure (Chromium)", () => {
     const y = Float64Array.from(state.y);
     const curve = Float64Array.from(state.fit);
     const mask = new Uint8Array(x.length).fill(1);
-    const figure = fitFigure({ x, y, mask, yUnit: "counts", counts: true }, { modelId: "two-slit", model: curve, residuals: residuals(y, curve, null, true, mask, new Float64Array(x.length)) });
+    const figure = fitFigure({ x, y, mask, yUnit: "counts", counts: true }, { modelId: "two-slit", model: curve, residuals: residuals(y, curve, null, "sqrt-model", mask, new Float64Array(x.length)) });
     await expectSame(Buffer.from(svg), figure);
 
     const png = (await press(id, "png")).get("fringekit-explorer-two-slit.png")!;
@@ -161,9 +161,9 @@ run("widget export buttons save the paper figure (Chromium)", () => {
     expect([...files.keys()].sort()).toEqual(["fringekit-uncertainty-1.svg", "fringekit-uncertainty-2.svg"]);
     const s = (await h.page.evaluate(`(() => { const m = fk.views.get(${v}).model; return { params: m.get("parameters"), grid: Array.from(m.get("grid").data), delta: Array.from(m.get("delta").data),
       names: m.get("free_names"), corr: Array.from(m.get("correlation").data) }; })()`)) as
-      { params: { name: string; unit: string; best: number; stderr: number }[]; grid: number[]; delta: number[]; names: string[]; corr: number[] };
+      { params: { name: string; unit: string; best: number; uncertainty: number }[]; grid: number[]; delta: number[]; names: string[]; corr: number[] };
     const m = s.grid.length / s.params.length;
-    const curves = s.params.map((p, i) => ({ name: p.name, unit: p.unit, best: p.best, stderr: p.stderr,
+    const curves = s.params.map((p, i) => ({ name: p.name, unit: p.unit, best: p.best, uncertainty: p.uncertainty,
       values: Float64Array.from(s.grid.slice(i * m, (i + 1) * m)), deltaObjective: Float64Array.from(s.delta.slice(i * m, (i + 1) * m)) }));
     await expectSame(files.get("fringekit-uncertainty-1.svg")!, profileLikelihoodFigure(curves));
     await expectSame(files.get("fringekit-uncertainty-2.svg")!, correlationFigure({ modelId: "", freeNames: s.names, correlation: Float64Array.from(s.corr) }));

@@ -3,13 +3,7 @@ import { DOMWidgetModel } from "@jupyter-widgets/base";
 import { arraySerializers } from "./arrayWire.js";
 import { FringekitModel, moduleDefaults } from "./fringekitModel.js";
 
-/** A fitted quantity of the source model, shown beside the plot (SI). */
-export interface ScanQuantity {
-  name: string;
-  unit: string;
-  value: number;
-  stderr: number | null;
-}
+export type { ScanQuantity } from "../shared/state.js";
 
 /**
  * Visibility against slit separation: measured points (`separation` in m, `visibility`,

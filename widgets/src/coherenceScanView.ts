@@ -52,7 +52,7 @@ export class CoherenceScanView extends FigureView {
       h("div", { class: "fk-section" }, h("h4", {}, "Fitted"),
         h("table", { class: "fk-table" }, h("tbody", {}, ...quantities.map((q) => {
           const unit = displayUnitFor(q.unit, q.value);
-          const shown = q.stderr === null ? formatNumber(q.value * unit.factor) : formatWithUncertainty(q.value * unit.factor, q.stderr * unit.factor);
+          const shown = q.uncertainty === null ? formatNumber(q.value * unit.factor) : formatWithUncertainty(q.value * unit.factor, q.uncertainty * unit.factor);
           return h("tr", { "data-quantity": q.name }, h("td", {}, q.name), h("td", {}, shown), h("td", {}, unit.label));
         })))));
     void this.draw();

@@ -3,19 +3,7 @@ import { DOMWidgetModel } from "@jupyter-widgets/base";
 import { arraySerializers } from "./arrayWire.js";
 import { FringekitModel, moduleDefaults } from "./fringekitModel.js";
 
-/** One row of the comparison table (JSON; numbers SI or dimensionless). */
-export interface ComparisonRow {
-  label: string;
-  modelId: string;
-  nFree: number;
-  reducedChi2: number;
-  aic: number;
-  bic: number;
-  deltaAic: number;
-  /** Akaike weight, 0…1. */
-  weight: number;
-  converged: boolean;
-}
+export type { ComparisonTableRow as ComparisonRow } from "../shared/state.js";
 
 /**
  * Several fits of one profile: `curves` and `residuals` are k × n float64 arrays (one row per

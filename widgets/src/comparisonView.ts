@@ -58,7 +58,7 @@ export class ComparisonView extends FigureView {
         h("thead", {}, h("tr", {}, ...["model", "k", "χ²ᵣ", "ΔAIC", "weight"].map((t) => h("th", {}, t)))),
         h("tbody", {}, ...table.map((r, i) => h("tr", { class: i === best ? "fk-best" : undefined, title: `AIC ${formatNumber(r.aic, 7)}, BIC ${formatNumber(r.bic, 7)}` },
           h("td", {}, h("span", { class: "fk-swatch", style: `background:${palette.series[i % palette.series.length]}` }), r.label + (r.converged ? "" : " (not converged)")),
-          h("td", {}, String(r.nFree)),
+          h("td", {}, String(r.k)),
           h("td", {}, fixedOrExp(r.reducedChi2, 3)),
           h("td", {}, fixedOrExp(r.deltaAic, 1)),
           h("td", {}, r.weight.toFixed(3))))))),

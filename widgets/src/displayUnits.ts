@@ -2,6 +2,7 @@
  * Display units at the widget edge: SI values inside, readable prefixes on screen
  * (a wavelength in nm, a slit width in µm or mm). One scale per parameter, chosen once.
  */
+import { formatQuantity } from "../../src/report/formatQuantity.js";
 
 /** A display unit: shown label and the factor from SI (display = SI × factor). */
 export interface DisplayUnit {
@@ -43,19 +44,15 @@ export function formatNumber(value: number, digits = 5): string {
 
 /**
  * "value ± uncertainty" with the uncertainty rounded to two significant digits and the value
- * to the same decimal place (common practice in reporting measurements).
+ * to the same decimal place: the library's formatter (formatQuantity, GUM 7.2.6) on numbers
+ * already in a display unit; exponent notation beyond its readable range.
  */
-export function formatWithUncertainty(value: number, stderr: number): string {
-  if (!(stderr > 0) || !Number.isFinite(stderr)) {
-    return stderr === Infinity ? `${formatNumber(value)} ± ∞` : formatNumber(value);
+export function formatWithUncertainty(value: number, uncertainty: number): string {
+  if (!(uncertainty > 0) || !Number.isFinite(uncertainty) || !Number.isFinite(value)) {
+    return uncertainty === Infinity ? `${formatNumber(value)} ± ∞` : formatNumber(value);
   }
-  const exponent = Math.floor(Math.log10(stderr)) - 1;
-  const decimals = Math.max(0, -exponent);
-  if (decimals > 8 || Math.abs(value) >= 1e7) {
-    return `${value.toExponential(3)} ± ${stderr.toExponential(1)}`;
+  if (uncertainty < 1e-8 * Math.max(1, Math.abs(value)) || Math.abs(value) >= 1e7 || uncertainty < 1e-8) {
+    return `${value.toExponential(3)} ± ${uncertainty.toExponential(1)}`;
   }
-  const scale = 10 ** exponent;
-  const roundedErr = Math.round(stderr / scale) * scale;
-  const roundedValue = Math.round(value / scale) * scale;
-  return `${roundedValue.toFixed(decimals)} ± ${roundedErr.toFixed(decimals)}`;
+  return formatQuantity(value, uncertainty, "1", { prefix: "none" }).text;
 }

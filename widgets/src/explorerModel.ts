@@ -20,6 +20,7 @@ export class ExplorerModel extends FringekitModel {
       counts: false,
       y_unit: "counts",
       model_id: "",
+      model_options: {},
       model_choices: [],
       params: {},
       noise: "auto",

@@ -9,13 +9,14 @@ import type { Profile } from "../../src/profile.js";
 import { fitFigure } from "../../src/report/figures/fitFigure.js";
 import type { FigureSpec } from "../../src/report/figures/figureSpec.js";
 import type { ShapedArray } from "./arrayWire.js";
-import { modelById, modelIds } from "./catalog.js";
+import { modelFor, modelIds } from "../shared/catalog.js";
+import { residualAxisTitle, residualScale, type ResidualScale } from "../../src/fit/residualScale.js";
 import { h, setChildren } from "./dom.js";
 import { displayUnitFor, formatNumber, formatWithUncertainty } from "./displayUnits.js";
-import type { FitSummary } from "./fitSummary.js";
+import type { FitSummary } from "../shared/fitSummary.js";
 import { axis, baseLayout, FigureView } from "./figureView.js";
 import { ParamRow } from "./paramRow.js";
-import { effectiveMask, paramsForModel, paramVector, residuals, type ParamState } from "./preview.js";
+import { effectiveMask, paramsForModel, paramVector, residuals, type ParamState } from "../shared/preview.js";
 import { drawOverlay } from "./overlay.js";
 import { palette } from "./styles.js";
 import Plotly from "plotly.js-dist-min";
@@ -35,6 +36,8 @@ export interface LocalFitRequest {
   mask: Uint8Array;
   counts: boolean;
   modelId: string;
+  /** Model options (e.g. { smallAngle: true }): the page fits exactly the model shown. */
+  modelOptions: Record<string, unknown>;
   noise: string;
   params: Record<string, ParamState>;
 }
@@ -172,7 +175,7 @@ export class ExplorerView extends FigureView {
   }
 
   private chooseModel(id: string): void {
-    const model = modelById(id);
+    const model = modelFor(id, this.model.get("model_options"));
     this.model.set({ model_id: id, params: paramsForModel(model, this.model.get("params")) });
     this.model.save_changes();
   }
@@ -188,7 +191,7 @@ export class ExplorerView extends FigureView {
     this.modelDef = null;
     if (!id) return;
     try {
-      this.modelDef = modelById(id);
+      this.modelDef = modelFor(id, this.model.get("model_options"));
     } catch (error) {
       this.statusEl.textContent = (error as Error).message;
       this.statusEl.classList.add("fk-bad");
@@ -258,9 +261,9 @@ export class ExplorerView extends FigureView {
   private xFactor = 1e3;
   private xLabel = "mm";
 
-  private poisson(): boolean {
-    const noise = this.model.get("noise") as string;
-    return noise === "poisson" || (noise === "auto" && this.model.get("counts") === true);
+  /** What residuals are divided by: the same choice the fitter makes for this noise model and data. */
+  private residualKind(): ResidualScale {
+    return residualScale(this.model.get("noise") as string, this.array("sigma") !== null, this.model.get("counts") === true);
   }
 
   /** Evaluate the model for the live parameter values into this.curve and this.resid. */
@@ -270,7 +273,7 @@ export class ExplorerView extends FigureView {
     if (!x || !y || this.modelDef === null || this.curve.length !== x.data.length) return false;
     paramVector(this.modelDef, this.live, this.pvec);
     this.modelDef.evaluate(x.data, this.pvec, this.curve);
-    residuals(y.data, this.curve, this.array("sigma")?.data ?? null, this.poisson(), this.used, this.resid);
+    residuals(y.data, this.curve, this.array("sigma")?.data ?? null, this.residualKind(), this.used, this.resid);
     return true;
   }
 
@@ -327,14 +330,14 @@ export class ExplorerView extends FigureView {
       curve = this.curve.slice();
     }
     const used = this.used.length === n ? this.used.slice() : new Uint8Array(n).fill(1);
-    const resid = residuals(y.data as Float64Array, curve, sigma as Float64Array | null, this.poisson(), used, new Float64Array(n));
+    const resid = residuals(y.data as Float64Array, curve, sigma as Float64Array | null, this.residualKind(), used, new Float64Array(n));
     const profile: Profile = {
       x: Float64Array.from(x.data), y: Float64Array.from(y.data), mask: used,
       yUnit: this.model.get("y_unit") as string, counts: this.model.get("counts") === true,
       ...(sigma ? { sigma: Float64Array.from(sigma) } : {}),
     };
     const modelId = fitted ? summary.modelId : (this.model.get("model_id") as string);
-    return [fitFigure(profile, { modelId, model: curve, residuals: resid }, fitted ? {} : { modelLabel: "model (sliders)" })];
+    return [fitFigure(profile, { modelId, model: curve, residuals: resid }, { residualScale: this.residualKind(), ...(fitted ? {} : { modelLabel: "model (sliders)" }) })];
   }
 
   private async redraw(): Promise<void> {
@@ -368,7 +371,7 @@ export class ExplorerView extends FigureView {
     if (window) {
       shapes.push({ type: "rect", xref: "x", yref: "paper", x0: window[0] * this.xFactor, x1: window[1] * this.xFactor, y0: 0, y1: 1, fillcolor: palette.windowShade, line: { color: palette.fit, width: 1, dash: "dot" }, layer: "below" });
     }
-    const residualLabel = this.array("sigma") !== null || this.poisson() ? "residual / σ" : "residual";
+    const residualLabel = residualAxisTitle(this.residualKind());
     await this.drawFigure(data, baseLayout({
       dragmode: this.dragMode === "zoom" ? "zoom" : "select",
       selectdirection: "h",
@@ -448,7 +451,7 @@ export class ExplorerView extends FigureView {
       const unit = this.rows.get(p.name)?.unit ?? displayUnitFor(p.unit, p.value);
       const shown = p.fixed
         ? `${formatNumber(p.value * unit.factor)} (fixed)`
-        : p.stderr === null ? `${formatNumber(p.value * unit.factor)} ± ?` : formatWithUncertainty(p.value * unit.factor, p.stderr * unit.factor);
+        : p.uncertainty === null ? `${formatNumber(p.value * unit.factor)} ± ?` : formatWithUncertainty(p.value * unit.factor, p.uncertainty * unit.factor);
       return h("tr", { "data-param": p.name }, h("td", {}, p.name), h("td", {}, shown + (p.atBound ? ` ⚑ ${p.atBound}` : "")), h("td", {}, unit.label));
     });
     const s = result.statistics;
@@ -498,7 +501,7 @@ export class ExplorerView extends FigureView {
     try {
       const out = await fitter.fit({
         x: x.data, y: y.data, sigma: this.array("sigma")?.data ?? null, mask: this.used, counts: this.model.get("counts"),
-        modelId: this.model.get("model_id"), noise: this.model.get("noise"), params: structuredClone(this.live),
+        modelId: this.model.get("model_id"), modelOptions: this.model.get("model_options") ?? {}, noise: this.model.get("noise"), params: structuredClone(this.live),
       }, (fraction, message) => this.model.set({ fit_progress: fraction, fit_message: message }), this.localAbort.signal);
       this.model.set({
         result: out.summary, fit_curve: { data: out.curve, shape: [out.curve.length] }, params: out.params,

@@ -7,5 +7,5 @@ export { UncertaintyModel } from "./uncertaintyModel.js";
 export { UncertaintyView } from "./uncertaintyView.js";
 export { CoherenceScanModel } from "./coherenceScanModel.js";
 export { CoherenceScanView } from "./coherenceScanView.js";
-export { MODULE_NAME, MODULE_VERSION, PROTOCOL_VERSION } from "./version.js";
-export { registerModel, modelIds } from "./catalog.js";
+export { MODULE_NAME, MODULE_VERSION, PROTOCOL_VERSION } from "../shared/version.js";
+export { registerModel, modelIds } from "../shared/catalog.js";

@@ -5,7 +5,7 @@
 import type { ParameterSpec } from "../../src/physics/model.js";
 import { h } from "./dom.js";
 import { displayUnitFor, formatNumber, type DisplayUnit } from "./displayUnits.js";
-import { sliderRange, type ParamState } from "./preview.js";
+import { sliderRange, type ParamState } from "../shared/preview.js";
 
 const STEPS = 1000;
 

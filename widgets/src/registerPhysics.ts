@@ -1,6 +1,6 @@
 /** Registers fringekit physics models with the browser catalog (same code the kernel runs). */
 import { getModel, listModels } from "../../src/physics/index.js";
-import { registerModel } from "./catalog.js";
+import { registerModel, registerModelBuilder } from "../shared/catalog.js";
 
 /**
  * Register every detector-axis model of src/physics that can be built without options.
@@ -8,6 +8,7 @@ import { registerModel } from "./catalog.js";
  * needs one registers the built instance itself. Safe to call more than once.
  */
 export function registerPhysicsModels(): void {
+  registerModelBuilder((id, options) => getModel(id, options));
   for (const info of listModels()) {
     if (info.axis !== "detector") continue;
     try {

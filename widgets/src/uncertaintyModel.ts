@@ -3,15 +3,7 @@ import { DOMWidgetModel } from "@jupyter-widgets/base";
 import { arraySerializers } from "./arrayWire.js";
 import { FringekitModel, moduleDefaults } from "./fringekitModel.js";
 
-/** One profiled parameter (JSON part; the curve itself is a row of `grid` / `delta`). */
-export interface ProfiledParameter {
-  name: string;
-  unit: string;
-  best: number;
-  stderr: number | null;
-  /** Profile-likelihood interval [lower, upper] (SI); null ends where the curve never crossed the threshold. */
-  interval: [number | null, number | null];
-}
+export type { ProfiledParameter } from "../shared/state.js";
 
 /**
  * Profile-likelihood curves and the correlation matrix. `grid` and `delta` are p × m float64

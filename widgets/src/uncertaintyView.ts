@@ -39,7 +39,7 @@ export class UncertaintyView extends FigureView {
     if (grid && delta && params.length > 0) {
       const curves = params.map((p, i) => ({
         name: p.name, unit: p.unit, values: row(grid, i), deltaObjective: row(delta, i), best: p.best,
-        ...(p.stderr !== null ? { stderr: p.stderr } : {}),
+        ...(p.uncertainty !== null ? { uncertainty: p.uncertainty } : {}),
       }));
       for (const group of groupsOf(curves, 4)) figures.push(profileLikelihoodFigure(group));
     }

@@ -3,6 +3,7 @@
  * normalised residuals in the panel below (one colour, dash and marker per model).
  */
 import { InvalidArgumentError } from "../../errors.js";
+import { residualAxisTitle, residualScale } from "../../fit/residualScale.js";
 import type { Profile } from "../../profile.js";
 import { plainArray, plotlyText, STATIC_CONFIG, withMimeBundle, type FigureSpec } from "./figureSpec.js";
 import { residualPanelAxes, symmetricLimit, type FitCurves } from "./fitFigure.js";
@@ -49,7 +50,8 @@ export function comparisonFigure(profile: Profile, fits: readonly { label: strin
   });
   const layout = {
     ...baseLayout(size, { kind: "comparison", models: fits.map((f) => f.result.modelId), xUnit: axis.unit }),
-    ...residualPanelAxes(axis.title, yAxis.title, limit, { dataFrom: 0.36, residualsTo: 0.28, residualTicks: 5 }),
+    ...residualPanelAxes(axis.title, yAxis.title, limit, { dataFrom: 0.36, residualsTo: 0.28, residualTicks: 5 },
+      residualAxisTitle(residualScale(fits[0].result.noise ?? "auto", profile.sigma !== undefined, profile.counts))),
   };
   return withMimeBundle({ data, layout, config: { ...STATIC_CONFIG } });
 }

@@ -40,7 +40,7 @@ export function confidenceBand(model: Model, result: FitResult, x: Float64Array,
   const minus = new Float64Array(x.length);
   for (const name of result.freeNames) {
     const j = result.parameters.findIndex((p) => p.name === name);
-    const se = result.parameters[j].stderr;
+    const se = result.parameters[j].uncertainty;
     const g = new Float64Array(x.length);
     if (Number.isFinite(se) && se > 0) {
       const h = 1e-3 * se;

@@ -3,6 +3,7 @@
  * sharing the position axis. Excluded points (mask = 0) are drawn apart, never hidden.
  */
 import { InvalidArgumentError } from "../../errors.js";
+import { residualAxisTitle, residualScale, type ResidualScale } from "../../fit/residualScale.js";
 import type { FitResult } from "../../fit/types.js";
 import type { Profile } from "../../profile.js";
 import { symmetricTicks } from "./axes.js";
@@ -15,7 +16,7 @@ import { profileTraces } from "./profileTraces.js";
  * The parts of a FitResult the fit and comparison figures draw: a full FitResult qualifies,
  * and so does a model curve that was not fitted (e.g. a widget's slider model).
  */
-export type FitCurves = Pick<FitResult, "modelId" | "model" | "residuals">;
+export type FitCurves = Pick<FitResult, "modelId" | "model" | "residuals"> & Partial<Pick<FitResult, "noise">>;
 
 /** Options of fitFigure (size in mm, font in pt, legend names). */
 export interface FitFigureOptions extends FigureSize {
@@ -23,6 +24,8 @@ export interface FitFigureOptions extends FigureSize {
   modelLabel?: string;
   /** Legend name of the data (user text, escaped); default "data". */
   dataLabel?: string;
+  /** What the residuals are divided by (default: as the fitter does for result.noise and the profile). */
+  residualScale?: ResidualScale;
 }
 
 /**
@@ -59,7 +62,8 @@ export function fitFigure(profile: Profile, result: FitCurves, options: FitFigur
   const limit = symmetricLimit(residuals);
   const layout = {
     ...baseLayout(size, { kind: "fit", modelId: result.modelId, xUnit: axis.unit }),
-    ...residualPanelAxes(axis.title, yAxis.title, limit, { dataFrom: 0.3, residualsTo: 0.22, residualTicks: 4 }),
+    ...residualPanelAxes(axis.title, yAxis.title, limit, { dataFrom: 0.3, residualsTo: 0.22, residualTicks: 4 },
+      residualAxisTitle(options.residualScale ?? residualScale(result.noise ?? "auto", profile.sigma !== undefined, profile.counts))),
   };
   return withMimeBundle({ data, layout, config: { ...STATIC_CONFIG } });
 }
@@ -78,12 +82,12 @@ export interface ResidualPanelSplit {
  * Axes and zero line of a figure with data on top and normalised residuals (in σ, ±limit)
  * below, sharing the position axis (titles are plotly text, already escaped).
  */
-export function residualPanelAxes(xTitle: string, yTitle: string, limit: number, split: ResidualPanelSplit): Record<string, unknown> {
+export function residualPanelAxes(xTitle: string, yTitle: string, limit: number, split: ResidualPanelSplit, residualTitle = residualAxisTitle("sigma")): Record<string, unknown> {
   return {
     xaxis: axisStyle("", { domain: [0, 1], anchor: "y", matches: "x2", showticklabels: false, title: undefined }),
     yaxis: axisStyle(yTitle, { domain: [split.dataFrom, 1], anchor: "x", rangemode: "tozero" }),
     xaxis2: axisStyle(xTitle, { domain: [0, 1], anchor: "y2" }),
-    yaxis2: axisStyle("(<i>I</i>−<i>f</i>)/<i>σ</i>", { domain: [0, split.residualsTo], anchor: "x2", range: [-limit, limit], tickmode: "array", tickvals: symmetricTicks(limit, split.residualTicks) }),
+    yaxis2: axisStyle(residualTitle, { domain: [0, split.residualsTo], anchor: "x2", range: [-limit, limit], tickmode: "array", tickvals: symmetricTicks(limit, split.residualTicks) }),
     shapes: [{ type: "line", xref: "x2 domain", x0: 0, x1: 1, yref: "y2", y0: 0, y1: 0, line: { color: GUIDE, width: 0.75 } }],
   };
 }

@@ -11,3 +11,5 @@ export * from "./coherenceScanFigure.js";
 export * from "./correlationFigure.js";
 export * from "./profileLikelihoodFigure.js";
 export * from "./profileCurve.js";
+export * from "./binnedResiduals.js";
+export * from "./modelDifferenceFigure.js";

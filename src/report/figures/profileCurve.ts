@@ -32,15 +32,15 @@ export function profileCurve(result: FitResult, profile: Profile, model: Model, 
   if (!parameter || !result.freeNames.includes(name)) {
     throw new InvalidArgumentError("parameter", name, `a free parameter of the fit: ${result.freeNames.join(", ")}`);
   }
-  if (!(Number.isFinite(parameter.stderr) && parameter.stderr > 0)) {
-    throw new InvalidArgumentError(`${name} standard error`, parameter.stderr, "a finite standard error to size the grid (the fit could not estimate one)");
+  if (!(Number.isFinite(parameter.uncertainty) && parameter.uncertainty > 0)) {
+    throw new InvalidArgumentError(`${name} standard error`, parameter.uncertainty, "a finite standard error to size the grid (the fit could not estimate one)");
   }
   const points = options.points ?? 15;
   if (!Number.isInteger(points) || points < 5 || points > 101) throw new InvalidArgumentError("points", points, "an integer from 5 to 101");
   const span = options.span ?? 3;
   if (!(span > 0 && span <= 20)) throw new InvalidArgumentError("span", span, "a half-width from 0 to 20 standard errors");
-  const lo = Math.max(parameter.value - span * parameter.stderr, parameter.lower);
-  const hi = Math.min(parameter.value + span * parameter.stderr, parameter.upper);
+  const lo = Math.max(parameter.value - span * parameter.uncertainty, parameter.lower);
+  const hi = Math.min(parameter.value + span * parameter.uncertainty, parameter.upper);
   const base = optionsFromResult(result, model, options.fitOptions);
   const scale = objectiveScale(result);
   const best = result.statistics.objective;
@@ -56,5 +56,5 @@ export function profileCurve(result: FitResult, profile: Profile, model: Model, 
     // A re-fit that fails leaves a gap rather than a wrong point.
     delta[i] = refit.converged ? Math.max(0, (refit.statistics.objective - best) / scale) : NaN;
   }
-  return { name, unit: parameter.unit, values, deltaObjective: delta, best: parameter.value, stderr: parameter.stderr };
+  return { name, unit: parameter.unit, values, deltaObjective: delta, best: parameter.value, uncertainty: parameter.uncertainty };
 }

@@ -24,7 +24,7 @@ export interface ProfileCurve {
   /** Best-fit value (SI), drawn as a vertical guide when given. */
   best?: number;
   /** Quadratic (covariance) standard error (SI); the parabola Δ = ((θ−best)/se)² is drawn for comparison. */
-  stderr?: number;
+  uncertainty?: number;
 }
 
 /**
@@ -59,11 +59,11 @@ export function profileLikelihoodFigure(curves: readonly ProfileCurve[], options
       line: { color: style.color, width: 1.2 }, marker: { color: style.color, size: 3 },
       xaxis: `x${suffix}`, yaxis: `y${suffix}`,
     });
-    if (curve.best !== undefined && curve.stderr !== undefined && Number.isFinite(curve.stderr) && curve.stderr > 0) {
+    if (curve.best !== undefined && curve.uncertainty !== undefined && Number.isFinite(curve.uncertainty) && curve.uncertainty > 0) {
       const xs: number[] = Array.from(curve.values as ArrayLike<number>);
       data.push({
         type: "scatter", mode: "lines", name: "quadratic (covariance)", showlegend: i === 0,
-        x: xs.map((v) => v * scale), y: xs.map((v) => ((v - curve.best!) / curve.stderr!) ** 2),
+        x: xs.map((v) => v * scale), y: xs.map((v) => ((v - curve.best!) / curve.uncertainty!) ** 2),
         line: { color: INK, width: 0.8, dash: "dot" }, xaxis: `x${suffix}`, yaxis: `y${suffix}`,
       });
     }
@@ -88,7 +88,7 @@ export function profileLikelihoodFigure(curves: readonly ProfileCurve[], options
       kind: "profile-likelihood",
       parameters: curves.map((c) => c.name),
       thresholds,
-      best: curves.map((c) => (c.best !== undefined && c.stderr !== undefined ? formatQuantity(c.best, c.stderr, c.unit).text : null)),
+      best: curves.map((c) => (c.best !== undefined && c.uncertainty !== undefined ? formatQuantity(c.best, c.uncertainty, c.unit).text : null)),
     }),
     ...layoutAxes,
     shapes,

@@ -6,6 +6,7 @@
  */
 import { DataError, InvalidArgumentError } from "../../errors.js";
 import { fitProfile } from "../../fit/fitProfile.js";
+import { rebuildModel } from "../../fit/fitSource.js";
 import type { FitOptions, FitResult } from "../../fit/types.js";
 import type { Model } from "../../physics/model.js";
 import { getModel } from "../../physics/registry.js";
@@ -73,7 +74,10 @@ export function replayResults(
   const differences: ReplayDifference[] = [];
   const replayed: FitResult[] = [];
   for (const record of doc.fits) {
-    const model = engine.getModel(record.modelId, record.modelOptions);
+    // Formula models are rebuilt from their recorded text; registry models through the engine.
+    const model = record.formula
+      ? rebuildModel({ id: record.modelId, options: {}, formula: record.formula })
+      : engine.getModel(record.modelId, record.modelOptions);
     const now = engine.fitProfile(data, model, { ...record.fitOptions } as FitOptions);
     replayed.push(now);
     differences.push(...compareResults(record.label, record.result, now, { relative, fraction, stderrRelative }));
@@ -83,7 +87,7 @@ export function replayResults(
   const what = `${doc.fits.length} fit${doc.fits.length === 1 ? "" : "s"} (${doc.fits.map((f) => f.label).join(", ")})`;
   const dataWords = dataCheck === "sha256" ? `data ${doc.input.source ?? ""} matched by SHA-256` : "data embedded in the results file";
   const summary = reproduced
-    ? `Reproduced: ${what} on ${dataWords}; every fitted value within ${num(fraction)} standard errors, fixed ones within ${num(relative)} relative, standard errors within ${num(stderrRelative * 100)} %, statistics within ${num(relative)} relative.`
+    ? `Reproduced: ${what} on ${dataWords}; every fitted value within ${num(fraction)} standard uncertainties, fixed ones within ${num(relative)} relative, standard uncertainties within ${num(stderrRelative * 100)} %, statistics within ${num(relative)} relative.`
     : `NOT reproduced: ${differences.length} difference${differences.length === 1 ? "" : "s"} in ${what} on ${dataWords}: ` +
       differences.slice(0, 5).map((d) => `${d.fit} ${d.quantity} ${d.recorded} → ${d.replayed} (allowed ${d.allowed})`).join("; ") +
       (differences.length > 5 ? `; and ${differences.length - 5} more` : "") + ".";
@@ -115,10 +119,10 @@ export function compareResults(
     }
     if (p.fixed !== q.fixed) add(`${p.name} fixed`, p.fixed, q.fixed, "the same");
     // A fitted value may move by a small fraction of its uncertainty; a fixed one only by rounding.
-    const valueTol = Number.isFinite(p.stderr) && p.stderr > 0 ? tol.fraction * p.stderr : tol.relative * Math.abs(p.value);
+    const valueTol = Number.isFinite(p.uncertainty) && p.uncertainty > 0 ? tol.fraction * p.uncertainty : tol.relative * Math.abs(p.value);
     if (!within(p.value, q.value, valueTol)) add(`${p.name} value`, p.value, q.value, `± ${valueTol.toPrecision(2)}`);
-    const seTol = Math.max(tol.stderrRelative, tol.relative) * Math.abs(p.stderr);
-    if (!within(p.stderr, q.stderr, seTol)) add(`${p.name} standard error`, p.stderr, q.stderr, `± ${seTol.toPrecision(2)}`);
+    const seTol = Math.max(tol.stderrRelative, tol.relative) * Math.abs(p.uncertainty);
+    if (!within(p.uncertainty, q.uncertainty, seTol)) add(`${p.name} uncertainty`, p.uncertainty, q.uncertainty, `± ${seTol.toPrecision(2)}`);
   }
   for (const key of ["chi2", "logLikelihood", "aic", "bic"] as const) {
     const a = recorded.statistics[key];

@@ -5,7 +5,9 @@
  * mask, the statistics and warnings — and reading back into the same FitResult objects.
  */
 import { DataError, InvalidArgumentError } from "../../errors.js";
+import { recordableOptions } from "../../fit/fitSource.js";
 import type { FitResult } from "../../fit/types.js";
+import type { FormulaSource } from "../../physics/modelSource.js";
 import type { Profile } from "../../profile.js";
 import { FRINGEKIT_VERSION } from "../version.js";
 import { decodeJson, encodeJson } from "./arrays.js";
@@ -41,6 +43,8 @@ export interface FitRecord {
   modelOptions: Record<string, unknown>;
   /** Options passed to fitProfile (functions such as onProgress are not recorded). */
   fitOptions: Record<string, unknown>;
+  /** Formula models only: the expression, variable and parameter specs, so replay can rebuild the model. */
+  formula?: FormulaSource;
   result: FitResult;
 }
 
@@ -119,13 +123,18 @@ export function resultsDocument(kind: ResultsKind, profile: Profile, fits: reado
       mask,
       data: embed ? { x: Float64Array.from(profile.x), y: Float64Array.from(profile.y), sigma: profile.sigma ? Float64Array.from(profile.sigma) : null } : null,
     },
-    fits: fits.map((f) => ({
-      label: f.label ?? f.result.modelId,
-      modelId: f.result.modelId,
-      modelOptions: { ...(f.modelOptions ?? {}) },
-      fitOptions: recordableOptions(f.fitOptions ?? {}),
-      result: f.result,
-    })),
+    fits: fits.map((f) => {
+      // A fit from the public fitProfile carries its model and options; given ones take precedence.
+      const source = f.result.source;
+      return {
+        label: f.label ?? f.result.modelId,
+        modelId: f.result.modelId,
+        modelOptions: { ...(f.modelOptions ?? source?.model.options ?? {}) },
+        ...(source?.model.formula ? { formula: source.model.formula } : {}),
+        fitOptions: recordableOptions(f.fitOptions ?? source?.options ?? {}),
+        result: f.result,
+      };
+    }),
     seeds: { ...(options.seeds ?? {}) },
     verdict: options.verdict ?? null,
     derived: { ...(options.derived ?? {}) },
@@ -177,8 +186,22 @@ export function parseResults(text: string, source = "results file"): ResultsDocu
   } catch (error) {
     throw new DataError(source, (error as Error).message, "the file is damaged; write it again from the original result");
   }
+  upgradeOldFields(doc);
   checkDocument(doc, source);
   return doc;
+}
+
+/** Files written before the rename call the standard uncertainty `stderr`; read it as `uncertainty`. */
+function upgradeOldFields(doc: ResultsDocument): void {
+  for (const fit of Array.isArray(doc.fits) ? doc.fits : []) {
+    for (const p of Array.isArray(fit?.result?.parameters) ? fit.result.parameters : []) {
+      const old = p as unknown as { stderr?: number; uncertainty?: number };
+      if (old.uncertainty === undefined && typeof old.stderr === "number") {
+        old.uncertainty = old.stderr;
+        delete old.stderr;
+      }
+    }
+  }
 }
 
 /** The profile embedded in a results document, or null when the data must come from its file. */
@@ -189,16 +212,6 @@ export function embeddedProfile(doc: ResultsDocument): Profile | null {
     x: data.x, y: data.y, ...(data.sigma ? { sigma: data.sigma } : {}), ...(doc.input.mask ? { mask: doc.input.mask } : {}),
     yUnit: doc.input.yUnit, counts: doc.input.counts,
   };
-}
-
-/** Fit options as JSON can hold them: no callbacks, no abort signal. */
-function recordableOptions(options: Record<string, unknown>): Record<string, unknown> {
-  const out: Record<string, unknown> = {};
-  for (const [k, v] of Object.entries(options)) {
-    if (k === "onProgress" || k === "signal" || typeof v === "function" || v === undefined) continue;
-    out[k] = v;
-  }
-  return out;
 }
 
 function checkDocument(doc: ResultsDocument, source: string): void {

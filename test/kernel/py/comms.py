@@ -48,7 +48,7 @@ def stdout_text(msgs):
 
 
 ECHO_CELL = r'''
-import { registerCommTarget } from "fringekit/kernel";
+import { registerCommTarget } from "fringekit/kernel-protocol";
 registerCommTarget("fk.test.echo", (comm, data, buffers) => {
   console.log("opened with " + JSON.stringify(data) + " and " + buffers.length + " buffers");
   comm.onMessage((d, bufs) => {
@@ -115,7 +115,7 @@ with kernel() as (km, kc):
 
     # Kernel-opened comm with a buffer, parented to the executing cell.
     code = r'''
-import { openComm } from "fringekit/kernel";
+import { openComm } from "fringekit/kernel-protocol";
 const cellComm = openComm("fk.test.frontend", { a: 1 }, { origin: "cell" }, [new Float64Array([1.5, 2.5])]);
 cellComm.onMessage((d, b) => console.log("cell comm got " + JSON.stringify(d) + " " + b.length));
 cellComm.id

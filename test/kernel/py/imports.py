@@ -14,9 +14,9 @@ def result_text(msgs):
 
 
 with kernel(cwd=sys.argv[1]) as (km, kc):
-    reply, msgs = execute(kc, 'import { openComm, getRuntime } from "fringekit/kernel";\nimport { FringekitError } from "fringekit";\n[typeof openComm, typeof FringekitError, getRuntime() !== undefined]')
+    reply, msgs = execute(kc, 'import { openComm, getRuntime } from "fringekit/kernel-protocol";\nimport { FringekitError } from "fringekit";\n[typeof openComm, typeof FringekitError, getRuntime() !== undefined]')
     checks.check(f"{where}: cells import fringekit and fringekit/kernel", result_text(msgs) == ["[ 'function', 'function', true ]"], result_text(msgs) or reply["content"])
-    reply, msgs = execute(kc, 'import { openComm as oc } from "fringekit/kernel";\nconst wrong: number = oc;')
+    reply, msgs = execute(kc, 'import { openComm as oc } from "fringekit/kernel-protocol";\nconst wrong: number = oc;')
     evalue = reply["content"].get("evalue", "")
     checks.check(f"{where}: the type-checker reads fringekit's .d.ts", reply["content"]["status"] == "error" and "is not assignable to type 'number'" in evalue, evalue)
     reply, msgs = execute(kc, 'import { InvalidArgumentError } from "fringekit";\nconst e: InvalidArgumentError = new InvalidArgumentError("wavelength", -1, "a positive length in m");\ne.argument')

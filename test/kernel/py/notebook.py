@@ -16,7 +16,7 @@ state_schema_path, view_schema_path, workdir = sys.argv[1:4]
 checks = Checks()
 
 CELLS = [
-    '''import { WidgetModel, typedArraySerializer } from "fringekit/kernel";
+    '''import { WidgetModel, typedArraySerializer } from "fringekit/kernel-protocol";
 const probe = new WidgetModel(
   { modelName: "ProbeModel", modelModule: "fringekit-probe", modelModuleVersion: "0.1.0",
     viewName: "ProbeView", viewModule: "fringekit-probe", viewModuleVersion: "0.1.0" },

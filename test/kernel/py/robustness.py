@@ -16,7 +16,7 @@ checks = Checks()
 DELIM = b"<IDS|MSG>"
 
 ECHO_CELL = r'''
-import { registerCommTarget } from "fringekit/kernel";
+import { registerCommTarget } from "fringekit/kernel-protocol";
 registerCommTarget("fk.test.quiet", (comm) => {
   comm.onMessage((d, bufs) => comm.send({ n: d.n, sizes: bufs.map((b) => b.byteLength) }, {}, bufs.length > 0 && d.back ? bufs : []));
 });

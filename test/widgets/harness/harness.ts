@@ -78,9 +78,9 @@ function comparisonState(n = 2048): Record<string, unknown> {
     x: f64(x), y: f64(profile.y), y_unit: "counts",
     curves: f64(curves, [variants.length, n]), residuals: f64(resid, [variants.length, n]),
     table: [
-      { label: "partial coherence (V free)", modelId: "two-slit", nFree: 7, reducedChi2: 1.012, aic: 2101.4, bic: 2141.2, deltaAic: 0, weight: 0.998, converged: true },
-      { label: "full coherence (V = 1)", modelId: "two-slit", nFree: 6, reducedChi2: 7.93, aic: 16203.7, bic: 16237.8, deltaAic: 14102.3, weight: 0, converged: true },
-      { label: "narrow slits", modelId: "two-slit", nFree: 7, reducedChi2: 1.016, aic: 2113.9, bic: 2153.7, deltaAic: 12.5, weight: 0.002, converged: true },
+      { label: "partial coherence (V free)", modelId: "two-slit", k: 7, reducedChi2: 1.012, aic: 2101.4, bic: 2141.2, deltaAic: 0, weight: 0.998, converged: true },
+      { label: "full coherence (V = 1)", modelId: "two-slit", k: 6, reducedChi2: 7.93, aic: 16203.7, bic: 16237.8, deltaAic: 14102.3, weight: 0, converged: true },
+      { label: "narrow slits", modelId: "two-slit", k: 7, reducedChi2: 1.016, aic: 2113.9, bic: 2153.7, deltaAic: 12.5, weight: 0.002, converged: true },
     ],
     verdict: "partial coherence (V free) is preferred: ΔAIC = 12.5 to the next model (weight 0.998).",
   };
@@ -89,10 +89,10 @@ function comparisonState(n = 2048): Record<string, unknown> {
 /** Profile-likelihood curves for four parameters with a mildly asymmetric shape (invented demo). */
 function uncertaintyState(): Record<string, unknown> {
   const params = [
-    { name: "separation", unit: "m", best: 0.5003e-3, stderr: 0.0009e-3 },
-    { name: "width", unit: "m", best: 0.1002e-3, stderr: 0.0004e-3 },
-    { name: "visibility", unit: "1", best: 0.8497, stderr: 0.0021 },
-    { name: "phase", unit: "rad", best: 0.302, stderr: 0.011 },
+    { name: "separation", unit: "m", best: 0.5003e-3, uncertainty: 0.0009e-3 },
+    { name: "width", unit: "m", best: 0.1002e-3, uncertainty: 0.0004e-3 },
+    { name: "visibility", unit: "1", best: 0.8497, uncertainty: 0.0021 },
+    { name: "phase", unit: "rad", best: 0.302, uncertainty: 0.011 },
   ];
   const m = 41;
   const grid = new Float64Array(params.length * m);
@@ -101,15 +101,15 @@ function uncertaintyState(): Record<string, unknown> {
     const skew = 0.08 * (k % 2 === 0 ? 1 : -1);
     for (let j = 0; j < m; j++) {
       const z = -3 + (6 * j) / (m - 1);
-      grid[k * m + j] = p.best + z * p.stderr;
+      grid[k * m + j] = p.best + z * p.uncertainty;
       delta[k * m + j] = z * z * (1 + skew * z);
     }
     const root = (sign: number) => {
       let z = 0;
       while (z * z * (1 + skew * sign * z) < 1 && z < 3) z += 0.001;
-      return p.best + sign * z * p.stderr;
+      return p.best + sign * z * p.uncertainty;
     };
-    return { name: p.name, unit: p.unit, best: p.best, stderr: p.stderr, interval: [root(-1), root(1)] };
+    return { name: p.name, unit: p.unit, best: p.best, uncertainty: p.uncertainty, interval: [root(-1), root(1)] };
   });
   const names = ["separation", "width", "visibility", "phase", "center"];
   const c = [1, 0.12, -0.05, 0.41, -0.38, 0.12, 1, -0.63, 0.02, 0.01, -0.05, -0.63, 1, 0.04, -0.02, 0.41, 0.02, 0.04, 1, -0.92, -0.38, 0.01, -0.02, -0.92, 1];
@@ -140,8 +140,8 @@ function coherenceState(): Record<string, unknown> {
     band_upper: f64(curve.map((c) => Math.min(1, c + 0.02 * Math.sin(Math.PI * Math.min(1, c + 0.1))))),
     source_label: "Gaussian source, rms size σ",
     quantities: [
-      { name: "rmsSize", unit: "m", value: 0.1203e-3, stderr: 0.0031e-3 },
-      { name: "visibility at zero separation", unit: "1", value: 0.968, stderr: 0.008 },
+      { name: "rmsSize", unit: "m", value: 0.1203e-3, uncertainty: 0.0031e-3 },
+      { name: "visibility at zero separation", unit: "1", value: 0.968, uncertainty: 0.008 },
     ],
   };
 }

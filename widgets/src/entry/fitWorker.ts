@@ -2,14 +2,14 @@
 // explorer and posts progress and the result back.
 import { fitProfile } from "../../../src/fit/fitProfile.js";
 import { getModel } from "../../../src/physics/index.js";
-import { fitOptionsFromParams } from "../fitRequest.js";
-import { fitSummary } from "../fitSummary.js";
+import { fitOptionsFromParams } from "../../shared/fitRequest.js";
+import { fitSummary } from "../../shared/fitSummary.js";
 import type { LocalFitRequest } from "../explorerView.js";
 
 addEventListener("message", (event: MessageEvent<LocalFitRequest>) => {
   const request = event.data;
   try {
-    const model = getModel(request.modelId);
+    const model = getModel(request.modelId, request.modelOptions ?? {});
     let last = 0;
     const result = fitProfile(
       { x: request.x, y: request.y, sigma: request.sigma ?? undefined, mask: request.mask, counts: request.counts, yUnit: "" },

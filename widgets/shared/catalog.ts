@@ -21,6 +21,31 @@ export function modelById(id: string): Model {
   return model;
 }
 
+type Builder = (id: string, options: Record<string, unknown>) => Model;
+let builder: Builder | null = null;
+const built = new Map<string, Model>();
+
+/** How to build a model from its id and options (the bundle registers getModel). */
+export function registerModelBuilder(build: Builder): void {
+  builder = build;
+  built.clear();
+}
+
+/**
+ * The model with this id built with `options` (e.g. { smallAngle: true }), so the preview and
+ * the page's fitter use exactly the model the kernel fits; without options the registered one.
+ */
+export function modelFor(id: string, options: Record<string, unknown> | null | undefined): Model {
+  if (!options || Object.keys(options).length === 0 || builder === null) return modelById(id);
+  const key = `${id} ${JSON.stringify(options)}`;
+  let model = built.get(key);
+  if (model === undefined) {
+    model = builder(id, options);
+    built.set(key, model);
+  }
+  return model;
+}
+
 /** Ids of every registered model, in registration order. */
 export function modelIds(): string[] {
   return [...models.keys()];

@@ -2,6 +2,7 @@
  * Pure computations behind the explorer's live preview: which points a fit would use,
  * the model curve for the slider values, and residuals. No DOM, so they are unit-tested in Node.
  */
+import { scaledResiduals, type ResidualScale } from "../../src/fit/residualScale.js";
 import type { Model } from "../../src/physics/model.js";
 
 /** Per-parameter state the explorer keeps (SI values and bounds). */
@@ -74,26 +75,18 @@ export function paramsForModel(model: Model, previous: Record<string, ParamState
 }
 
 /**
- * Residuals (y − f)/s into `out`, NaN where unused. s = σ when given; √max(f, 1) for counts
- * (Pearson residuals, common practice for Poisson data); otherwise 1 (plain y − f).
+ * Residuals (y − f)/s into `out`, NaN where unused, with s as the fitter takes it for the noise
+ * model (see residualScale: √f for Poisson, σ when given, √y for counts, else 1).
  */
 export function residuals(
   y: Float64Array,
   f: Float64Array,
   sigma: Float64Array | null,
-  poisson: boolean,
+  scale: ResidualScale,
   used: Uint8Array,
   out: Float64Array,
 ): Float64Array {
-  for (let i = 0; i < y.length; i++) {
-    if (used[i] !== 1) {
-      out[i] = NaN;
-      continue;
-    }
-    const s = sigma !== null ? sigma[i]! : poisson ? Math.sqrt(Math.max(f[i]!, 1)) : 1;
-    out[i] = (y[i]! - f[i]!) / s;
-  }
-  return out;
+  return scaledResiduals(y, f, sigma, scale, used, out);
 }
 
 /**
@@ -110,4 +103,30 @@ export function sliderRange(value: number, lower: number, upper: number, zeroSpa
     hi = value + 1;
   }
   return [lo, hi];
+}
+
+/**
+ * After a model switch, scale the new model's amplitude so the curve's highest point over `x`
+ * stays where the old curve's was (above the background), so the sliders still sit on the data.
+ * Models differ in what `amplitude` multiplies (one beam, or the peak); the height is what a user
+ * sees. Changes `next.amplitude.value` in place; does nothing when either curve has no height.
+ * @param x        positions (m)
+ * @param before   the old model and its parameter vector (model order)
+ * @param after    the new model; `next` its slider state (amplitude, background by name)
+ */
+export function keepCurveHeight(x: Float64Array, before: Model, beforeParams: Float64Array, after: Model, next: Record<string, ParamState>): void {
+  const amplitude = next.amplitude;
+  if (amplitude === undefined || x.length === 0) return;
+  const peak = (model: Model, params: Float64Array): number => {
+    const out = new Float64Array(x.length);
+    model.evaluate(x, params, out);
+    let top = -Infinity;
+    for (const v of out) if (v > top) top = v;
+    return top;
+  };
+  const background = next.background?.value ?? 0;
+  const wanted = peak(before, beforeParams) - background;
+  const now = peak(after, paramVector(after, next, new Float64Array(after.parameters.length))) - background;
+  const scale = wanted / now;
+  if (wanted > 0 && now > 0 && Number.isFinite(scale)) amplitude.value *= scale;
 }

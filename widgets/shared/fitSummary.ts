@@ -10,7 +10,7 @@ export interface SummaryParameter {
   unit: string;
   value: number;
   /** Standard uncertainty (SI); null when it cannot be estimated. */
-  stderr: number | null;
+  uncertainty: number | null;
   fixed: boolean;
   atBound: "lower" | "upper" | null;
 }
@@ -48,7 +48,7 @@ export function fitSummary(result: FitResult): FitSummary {
     message: result.message,
     iterations: result.iterations,
     parameters: result.parameters.map((p) => ({
-      name: p.name, unit: p.unit, value: p.value, stderr: p.fixed ? 0 : finiteOrNull(p.stderr), fixed: p.fixed, atBound: p.atBound,
+      name: p.name, unit: p.unit, value: p.value, uncertainty: p.fixed ? 0 : finiteOrNull(p.uncertainty), fixed: p.fixed, atBound: p.atBound,
     })),
     statistics: {
       n: s.n, nFree: s.nFree, dof: s.dof,

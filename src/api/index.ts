@@ -1,0 +1,5 @@
+// The one-line helpers: fitProfile → Fit, compare → Comparison. Re-exports only.
+export * from "./fit.js";
+export * from "./fitProfile.js";
+export * from "./compare.js";
+export { type PlannedGeometry } from "./farField.js";
