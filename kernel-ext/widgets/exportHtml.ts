@@ -5,11 +5,12 @@
  * fitter in a Web Worker).
  */
 import { existsSync } from "node:fs";
-import { readFile, rename, rm, writeFile } from "node:fs/promises";
+import { readFile } from "node:fs/promises";
 import path from "node:path";
 import { fileURLToPath } from "node:url";
 import { DataError, InvalidArgumentError } from "../../src/errors.js";
 import { escapeHtml } from "../../src/report/escape.js";
+import { writeFileAtomic } from "../figures/atomicWrite.js";
 
 const STATE_MIME = "application/vnd.jupyter.widget-state+json";
 const VIEW_MIME = "application/vnd.jupyter.widget-view+json";
@@ -106,12 +107,5 @@ export async function exportNotebookHtml(ipynbPath: string, outPath: string): Pr
   if (notebook.nbformat !== 4) throw new DataError(path.basename(ipynbPath), `nbformat ${notebook.nbformat}`, "convert it to nbformat 4 first (jupyter nbconvert --to notebook)");
   const renderer = await readFile(rendererBundlePath(), "utf8");
   const html = notebookHtml(notebook, renderer, path.basename(ipynbPath, ".ipynb"));
-  const temp = `${outPath}.${process.pid}.tmp`;
-  try {
-    await writeFile(temp, html);
-    await rename(temp, outPath);
-  } catch (error) {
-    await rm(temp, { force: true });
-    throw error;
-  }
+  await writeFileAtomic(outPath, html);
 }
