@@ -48,6 +48,10 @@ function hostileNotebook(widgets: ReturnType<typeof demoWidgets>): Record<string
     state: { value: "<img src=x onerror=\"window.__pwned = 'html-widget'\"><img src=\"http://127.0.0.1:9/widget.png\">" } };
   state.state["foreign-output"] = { model_name: "OutputModel", model_module: "@jupyter-widgets/output", model_module_version: "1.0.0",
     state: { outputs: [{ output_type: "display_data", data: { "text/html": "<script>window.__pwned = 'output-widget'</script>" }, metadata: {} }] } };
+  // A fringekit model whose buffer path walks into Object.prototype (item 8, page side).
+  const polluter = JSON.parse(JSON.stringify(state.state[widgets.ids.comparison]));
+  polluter.buffers.push({ path: ["__proto__", "polluted"], data: "AAAAAA==", encoding: "base64" });
+  state.state["fk-polluter"] = polluter;
   state.state["foreign-lib"] = { model_name: "EvilModel", model_module: "evil-widgets", model_module_version: "1.0.0", state: {} };
   const view = (id: string, html?: string) => ({ output_type: "display_data", metadata: {}, data: {
     [VIEW]: { version_major: 2, version_minor: 0, model_id: id }, "text/plain": `${id} fallback`, ...(html ? { "text/html": html } : {}),
@@ -112,6 +116,7 @@ run("exportNotebookHtml(hostile.ipynb, out.html)", () => {
     await page.waitForTimeout(1000);
     expect(page.url()).toMatch(/^file:.*hostile\.html$/);
     expect(await page.evaluate(() => (window as any).__pwned)).toBeUndefined();
+    expect(await page.evaluate(() => [({} as any).polluted === undefined, String({})])).toEqual([true, "[object Object]"]);
     expect(requests).toEqual([]);
     expect(await page.$$eval(".fk-root", (els) => els.length)).toBe(4);
     // The unclosed comment swallowed nothing; the safe table survived sanitising.
@@ -125,7 +130,7 @@ run("exportNotebookHtml(hostile.ipynb, out.html)", () => {
     expect(html).toContain("html widget fallback");
     expect(html).toContain("foreign-output fallback");
     const state = JSON.parse(html.match(/<script type="application\/vnd\.jupyter\.widget-state\+json">([^]*?)<\/script>/)![1]!);
-    expect(Object.keys(state.state).sort()).toEqual(Object.values(widgets.ids).sort());
+    expect(Object.keys(state.state).sort()).toEqual([...Object.values(widgets.ids), "fk-polluter"].sort());
     const page = html.slice(html.indexOf("<body>"), html.indexOf('<script id="fringekit-widget-renderer">')); // the renderer bundle is ours
     // Inside tags (escaped text such as "&lt;img onerror" in an error line is harmless text).
     expect(page.match(/<[^<>]*\son\w+\s*=|<[^<>]*javascript:|<(iframe|object|embed|base|style|link)\b|<meta http-equiv="?refresh/gi)).toBeNull();

@@ -4,14 +4,25 @@
  * each `<script type="application/vnd.jupyter.widget-view+json">` marks where a view goes.
  */
 import { HTMLManager } from "@jupyter-widgets/html-manager/lib/htmlmanager.js";
+import { checkBufferPaths } from "./bufferPaths.js";
 import { MODULE_NAME } from "./version.js";
 
 /**
  * Only fringekit's own models: a page may carry other libraries' models (HTML, Output, Image
  * widgets) whose stock views would insert HTML or fetch from the network.
  */
-function ownState<T extends { state?: Record<string, { model_module?: string }> }>(document: T): T {
-  const own = Object.entries(document.state ?? {}).filter(([, model]) => model?.model_module === MODULE_NAME);
+function ownState<T extends { state?: Record<string, { model_module?: string; buffers?: { path?: unknown }[] }> }>(document: T): T {
+  const own = Object.entries(document.state ?? {}).filter(([id, model]) => {
+    if (model?.model_module !== MODULE_NAME) return false;
+    // The widget manager's put_buffers walks these paths without checks: refuse prototype keys.
+    try {
+      checkBufferPaths((model.buffers ?? []).map((b) => b?.path));
+      return true;
+    } catch (error) {
+      console.warn(`widget ${id} not rendered: ${(error as Error).message}`);
+      return false;
+    }
+  });
   return { ...document, state: Object.fromEntries(own) };
 }
 
