@@ -2,10 +2,10 @@
  * File access for the command: size checked before reading, outputs written atomically
  * (temporary file in the same folder, then rename), never over an input file.
  */
-import { randomBytes } from "node:crypto";
-import { readdirSync, readFileSync, renameSync, statSync, unlinkSync, writeFileSync, openSync, readSync, closeSync, realpathSync } from "node:fs";
+import { readdirSync, readFileSync, statSync, openSync, readSync, closeSync, realpathSync } from "node:fs";
 import { basename, dirname, join, resolve } from "node:path";
-import { DataError, MAX_IMAGE_BYTES, MAX_TABLE_BYTES, checkFileSize, isImage } from "../src/advanced.js";
+import { writeFileAtomicSync } from "../kernel-ext/figures/atomicWrite.js";
+import { FringekitError, DataError, MAX_IMAGE_BYTES, MAX_TABLE_BYTES, checkFileSize, isImage } from "../src/advanced.js";
 
 /**
  * Reads a data file after checking that it exists, is a regular file and is not too large
@@ -38,8 +38,9 @@ export function readInputFile(path: string): Uint8Array {
 }
 
 /**
- * Writes text or bytes atomically: to a temporary file beside the target, then renamed over it.
- * Refuses to overwrite any of the input files.
+ * Writes text or bytes with the project's one writer (writeFileAtomicSync): atomically over a
+ * regular file or a missing path, streamed into a FIFO or character device (`--out /dev/stdout`),
+ * refused for folders and other special files. Refuses to overwrite any of the input files.
  * @param path    output path
  * @param content text (UTF-8) or bytes
  * @param inputs  input paths that must not be overwritten
@@ -49,12 +50,10 @@ export function writeOutputFile(path: string, content: string | Uint8Array, inpu
   for (const input of inputs) {
     if (sameFile(target, input)) throw new DataError(path, "the output file is one of the input files", "choose another output name; input files are never changed");
   }
-  const temporary = join(dirname(target), `.${basename(target)}.${randomBytes(6).toString("hex")}.tmp`);
   try {
-    writeFileSync(temporary, content, { flag: "wx" });
-    renameSync(temporary, target);
+    writeFileAtomicSync(target, content);
   } catch (error) {
-    try { unlinkSync(temporary); } catch { /* nothing was written */ }
+    if (error instanceof FringekitError && error.code === "bad-output") throw new DataError(path, "not a file that can be written (a folder, socket or block device)", "give the path of a file, a FIFO or a character device");
     throw new DataError(path, `cannot be written (${(error as NodeJS.ErrnoException).code ?? String(error)})`, "check that the folder exists and is writable");
   }
 }

@@ -2,7 +2,7 @@
  * The `fringekit` command line: dispatches to a subcommand, prints one-line errors (no stack
  * traces) and returns 0 (success), 1 (fit did not converge, result written) or 2 (bad input/usage).
  */
-import { FringekitError } from "../src/errors.js";
+import { FringekitError, safeText } from "../src/errors.js";
 import type { CommandOutput } from "./output.js";
 import { USAGE } from "./usage.js";
 import { UsageError } from "./usageError.js";
@@ -61,8 +61,8 @@ export async function run(argv: readonly string[], io: CommandStreams = PROCESS_
     const command = await load();
     const output = await command(rest);
     if (output.stdout) io.stdout(output.stdout);
-    for (const line of output.stderr ?? []) io.stderr(`${line}\n`);
-    if (output.error) io.stderr(`fringekit ${name}: ${output.error}\n`);
+    for (const line of output.stderr ?? []) io.stderr(`${safeText(line, 2000)}\n`);
+    if (output.error) io.stderr(`fringekit ${name}: ${safeText(output.error, 2000)}\n`);
     return output.exitCode;
   } catch (error) {
     io.stderr(`fringekit ${name}: ${oneLine(error)}\n`);
@@ -71,8 +71,10 @@ export async function run(argv: readonly string[], io: CommandStreams = PROCESS_
 }
 
 function oneLine(error: unknown): string {
-  if (error instanceof UsageError) return `${error.message}; see fringekit --help`;
-  if (error instanceof FringekitError) return error.message.replace(/\s*\n\s*/g, " ");
+  // One line, no terminal control characters, capped: messages may quote file content.
+  const clean = (text: string) => safeText(text.replace(/\s*\n\s*/g, " "), 1000);
+  if (error instanceof UsageError) return `${clean(error.message)}; see fringekit --help`;
+  if (error instanceof FringekitError) return clean(error.message);
   const text = error instanceof Error ? error.message : String(error);
-  return `internal error: ${text.replace(/\s*\n\s*/g, " ")} (please report this with the input file)`;
+  return `internal error: ${clean(text)} (please report this with the input file)`;
 }

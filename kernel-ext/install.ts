@@ -3,11 +3,12 @@
  * Kernelspec layout: Jupyter client documentation, "Kernel specs" (kernel.json with argv,
  * display_name, language, interrupt_mode, metadata).
  */
-import { mkdir, rename, writeFile, rm } from "node:fs/promises";
+import { mkdir } from "node:fs/promises";
 import { homedir } from "node:os";
 import path from "node:path";
 import { fileURLToPath } from "node:url";
 import { InvalidArgumentError } from "../src/errors.js";
+import { writeFileAtomic } from "./figures/atomicWrite.js";
 
 /** Name of the kernelspec directory; frontends show `KERNEL_DISPLAY_NAME`. */
 export const KERNEL_NAME = "fringekit";
@@ -83,7 +84,7 @@ export function userKernelsDir(env: NodeJS.ProcessEnv = process.env): string {
  * Installs the `fringekit` kernelspec (kernel.json) for Jupyter.
  * With `prefix`, `JUPYTER_PATH=PREFIX/share/jupyter jupyter kernelspec list` shows it; with
  * `user` (default) it lands in the per-user data directory. The file is written atomically
- * (temporary file + rename); an existing fringekit kernelspec there is replaced.
+ * (writeFileAtomic); an existing fringekit kernelspec there is replaced.
  * @returns the directory written and the spec
  */
 export async function installKernelspec(options: InstallKernelspecOptions = {}): Promise<InstalledKernelspec> {
@@ -101,13 +102,6 @@ export async function installKernelspec(options: InstallKernelspecOptions = {}):
   const spec = kernelSpecFor(nodePath ?? process.execPath);
   await mkdir(directory, { recursive: true });
   const target = path.join(directory, "kernel.json");
-  const temp = `${target}.${process.pid}.${Date.now()}.tmp`;
-  try {
-    await writeFile(temp, JSON.stringify(spec, null, 2) + "\n", "utf8");
-    await rename(temp, target);
-  } catch (error) {
-    await rm(temp, { force: true });
-    throw error;
-  }
+  await writeFileAtomic(target, JSON.stringify(spec, null, 2) + "\n");
   return { directory, spec };
 }

@@ -9,7 +9,8 @@
  * Detector effects: 12-bit counts (top code 4095) with Poisson shot noise, Gaussian read noise
  * and a dark offset; one saturated camera frame; a few hot pixels; a dark frame.
  */
-import { mkdirSync, renameSync, writeFileSync } from "node:fs";
+import { mkdirSync } from "node:fs";
+import { writeFileAtomicSync } from "../kernel-ext/figures/atomicWrite.js";
 import { dirname, join } from "node:path";
 import { fileURLToPath } from "node:url";
 import { encode } from "fast-png";
@@ -32,13 +33,11 @@ const dataDir = process.argv[2] ?? join(dirname(fileURLToPath(import.meta.url)),
 /** 12-bit camera: largest code. */
 const TOP_CODE = 4095;
 
-/** Writes a file atomically (temporary file + rename). */
+/** Writes a file atomically (the project's one writer). */
 function writeAtomic(name: string, content: string | Uint8Array): void {
   const target = join(dataDir, name);
   mkdirSync(dirname(target), { recursive: true });
-  const temporary = `${target}.partial`;
-  writeFileSync(temporary, content);
-  renameSync(temporary, target);
+  writeFileAtomicSync(target, content);
 }
 
 /** Camera-line table: position (mm) and 12-bit counts, with a short comment header. */

@@ -22,7 +22,7 @@ export class InvalidArgumentError extends FringekitError {
   readonly value: unknown;
   readonly allowed: string;
   constructor(argument: string, value: unknown, allowed: string) {
-    super("invalid-argument", `invalid ${argument}: ${formatValue(value)} (${allowed})`);
+    super("invalid-argument", `invalid ${safeText(argument, 80)}: ${formatValue(value)} (${safeText(allowed, 300)})`);
     this.name = "InvalidArgumentError";
     this.argument = argument;
     this.value = value;
@@ -39,7 +39,7 @@ export class DataError extends FringekitError {
   readonly line: number | undefined;
   readonly hint: string;
   constructor(source: string, problem: string, hint: string, line?: number) {
-    super("bad-data", `${source}${line !== undefined ? `:${line}` : ""}: ${problem}; ${hint}`);
+    super("bad-data", `${safeText(source, 200)}${line !== undefined ? `:${line}` : ""}: ${safeText(problem, 400)}; ${safeText(hint, 300)}`);
     this.name = "DataError";
     this.source = source;
     this.line = line;
@@ -47,14 +47,32 @@ export class DataError extends FringekitError {
   }
 }
 
+/** Control characters: C0, DEL and C1 (ECMA-48 escape sequences start with ESC 0x1b or CSI 0x9b), and line/paragraph separators. */
+const CONTROL = /[\u0000-\u001f\u007f-\u009f\u2028\u2029]/g;
+
+/**
+ * `text` safe to print on a terminal in one line: control characters become `\xNN` (or
+ * `\uNNNN`) escapes and text longer than `max` characters is cut, saying how long it was.
+ * @param text any text, e.g. quoted from a file
+ * @param max  largest number of characters kept
+ */
+export function safeText(text: string, max = 200): string {
+  const str = String(text);
+  const cut = str.length > max ? `${str.slice(0, max)}… (${str.length} characters)` : str;
+  return cut.replace(CONTROL, (c) => {
+    const code = c.charCodeAt(0);
+    return code <= 0xff ? `\\x${code.toString(16).padStart(2, "0")}` : `\\u${code.toString(16).padStart(4, "0")}`;
+  });
+}
+
 function formatValue(value: unknown): string {
-  if (typeof value === "string") return JSON.stringify(value);
+  if (typeof value === "string") return value.length > 80 ? `${JSON.stringify(value.slice(0, 80)).replace(CONTROL, "?")}… (${value.length} characters)` : JSON.stringify(value).replace(CONTROL, "?");
   if (typeof value === "number" || typeof value === "boolean" || value === null || value === undefined) {
     return String(value);
   }
   try {
-    const text = JSON.stringify(value);
-    return text.length > 80 ? `${text.slice(0, 77)}...` : text;
+    const text = JSON.stringify(value) ?? String(value);
+    return safeText(text.length > 80 ? `${text.slice(0, 77)}...` : text, 100);
   } catch {
     return Object.prototype.toString.call(value);
   }

@@ -1,6 +1,6 @@
 /** `fringekit profile FRAME [--roi X,Y,W,H] [--dark FILE] [--flat FILE] [--pixel-pitch V U] [--out FILE.csv]`. */
 import { basename } from "node:path";
-import { formatQuantity, frameToLine, readImage, sha256Hex } from "../../src/advanced.js";
+import { formatQuantity, frameToLine, readImage, safeText, sha256Hex } from "../../src/advanced.js";
 import { readInputFile, writeOutputFile } from "../files.js";
 import { DATA_OPTIONS, profileOptions } from "../loadData.js";
 import { parseArgs } from "../parseArgs.js";
@@ -18,12 +18,13 @@ export function profileCommand(words: readonly string[]): CommandOutput {
   const line = frameToLine(stack, { ...options, maskSaturated: true });
   const pitch = options.pixelPitch ?? stack.pixelPitchFromFile;
   const lines: string[] = [
-    `# profile of ${basename(path)} (sha256 ${sha256Hex(bytes)}) made by fringekit profile`,
+    // The name is quoted: a newline in it would inject rows into the table.
+    `# profile of ${safeText(basename(path), 200)} (sha256 ${sha256Hex(bytes)}) made by fringekit profile`,
     pitch === undefined
       ? "# no pixel pitch: positions are pixel indices (give --pixel-pitch VALUE UNIT for millimetres)"
       : `# pixel pitch ${formatQuantity(pitch, 0, "m").text} (${options.pixelPitch !== undefined ? "--pixel-pitch" : "from the file's own resolution record"})`,
-    ...line.notes.map((n) => `# ${n}`),
-    ...line.warnings.map((w) => `# warning: ${w}`),
+    ...line.notes.map((n) => `# ${safeText(n, 500)}`),
+    ...line.warnings.map((w) => `# warning: ${safeText(w, 500)}`),
   ];
   let omitted = 0;
   const rows: string[] = [];

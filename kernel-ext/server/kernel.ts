@@ -15,7 +15,7 @@ import { toBuffer } from "../runtime.js";
 import type { ExecutorConsole, TslabExecutor, TslabInternals } from "../tslabPin.js";
 import { checkCompleteness, type TranspileApi } from "./completeness.js";
 import { errorContentFrom, errorContentOf, type ErrorContent } from "./errors.js";
-import { encodeFrames, makeHeader, parseFrames, SerialSender, type MessageHeader, type SendingSocket, type WireMessage } from "./wire.js";
+import { encodeFrames, makeHeader, parseFrames, SerialSender, SignatureHistory, type MessageHeader, type SendingSocket, type WireMessage } from "./wire.js";
 
 /** The parts of tslab's ZmqServer instance the kernel uses (set up by its init()). */
 export interface TslabServer {
@@ -63,6 +63,8 @@ export class FringekitKernel {
   private executionCount = 0;
   private executionQueue: Promise<unknown> = Promise.resolve();
   private interruptController = new AbortController();
+  /** Signatures of accepted messages: a captured message cannot be replayed. */
+  private readonly signatures = new SignatureHistory();
 
   /**
    * @param tslab the verified tslab internals
@@ -133,7 +135,7 @@ export class FringekitKernel {
     this.server = server;
     let message: WireMessage;
     try {
-      message = parseFrames(server.connInfo.key, frames);
+      message = parseFrames(server.connInfo.key, frames, this.signatures);
     } catch (error) {
       this.log(`dropped a message: ${(error as Error).message}`);
       return;

@@ -46,8 +46,32 @@ export function sign(key: string, parts: readonly Uint8Array[]): string {
   return hmac.digest("hex");
 }
 
-/** Decodes and verifies frames; throws WireError naming the problem. */
-export function parseFrames(key: string, frames: readonly Buffer[]): WireMessage {
+/**
+ * Signatures already accepted, so a captured signed message cannot be sent again (as Jupyter's
+ * reference kernel does). Bounded: past `capacity` entries the oldest is forgotten.
+ */
+export class SignatureHistory {
+  private readonly seen = new Set<string>();
+  /** @param capacity how many signatures are remembered (default 65 536) */
+  constructor(private readonly capacity = 2 ** 16) {}
+  /** Number of remembered signatures. */
+  get size(): number {
+    return this.seen.size;
+  }
+  /** Remembers `signature`; false when it was already there (a replay). */
+  add(signature: string): boolean {
+    if (this.seen.has(signature)) return false;
+    this.seen.add(signature);
+    if (this.seen.size > this.capacity) this.seen.delete(this.seen.values().next().value as string);
+    return true;
+  }
+}
+
+/**
+ * Decodes and verifies frames; throws WireError naming the problem. With `history`, a message
+ * whose (valid) signature was seen before is refused as a replay.
+ */
+export function parseFrames(key: string, frames: readonly Buffer[], history?: SignatureHistory): WireMessage {
   const delimiterAt = frames.findIndex((frame) => frame.equals(DELIMITER));
   if (delimiterAt < 0) throw new WireError("message without <IDS|MSG> delimiter");
   if (frames.length < delimiterAt + 6) throw new WireError(`message with ${frames.length - delimiterAt - 1} frames after the delimiter (need 5)`);
@@ -58,6 +82,7 @@ export function parseFrames(key: string, frames: readonly Buffer[]): WireMessage
     const got = Buffer.from(signature, "ascii");
     const want = Buffer.from(expected, "ascii");
     if (got.length !== want.length || !timingSafeEqual(got, want)) throw new WireError("message with a wrong HMAC signature");
+    if (history && !history.add(signature)) throw new WireError("replayed message: its signature was already used");
   }
   const json = (index: number, name: string): Record<string, unknown> => {
     let value: unknown;

@@ -3,6 +3,7 @@
  * messaging protocol 2.1 describes: binary leaves are taken out of the JSON state and sent as
  * separate frames; `buffer_paths` lists where each one belongs (a list of keys and indices).
  */
+import { checkBufferPaths } from "../../widgets/src/bufferPaths.js";
 
 /** A path into a state object: object keys and array indices. */
 export type BufferPath = (string | number)[];
@@ -55,17 +56,19 @@ export function removeBuffers(state: Record<string, unknown>): SplitState {
 
 /**
  * Puts `buffers` back into `state` (in place) at `bufferPaths`, as DataViews.
- * Throws TypeError when a path does not lead into the state.
+ * Throws TypeError when a path does not lead into the state through its own properties or
+ * holds `__proto__`, `constructor` or `prototype` (checkBufferPaths).
  */
 export function putBuffers(state: Record<string, unknown>, bufferPaths: readonly BufferPath[], buffers: readonly DataView[]): void {
   if (bufferPaths.length > buffers.length) {
     throw new TypeError(`buffer_paths lists ${bufferPaths.length} buffers but the message carries ${buffers.length}`);
   }
+  checkBufferPaths(bufferPaths); // refuses __proto__, constructor, prototype (prototype pollution)
   bufferPaths.forEach((path, i) => {
-    if (!Array.isArray(path) || path.length === 0) throw new TypeError(`buffer_paths[${i}] is not a non-empty list: ${JSON.stringify(path)}`);
     let target: Record<string | number, unknown> = state;
     for (let k = 0; k < path.length - 1; k++) {
-      const next = target[path[k]];
+      // Own properties only: an inherited one (toString…) is not state.
+      const next = Object.prototype.hasOwnProperty.call(target, path[k]!) ? target[path[k]!] : undefined;
       if (next === null || typeof next !== "object") {
         throw new TypeError(`buffer_paths[${i}] ${JSON.stringify(path)} does not lead into the state (stops at ${JSON.stringify(path[k])})`);
       }

@@ -2,15 +2,20 @@
  * Static HTML export of an executed notebook whose widgets still work with no kernel and no
  * network: the widget state saved in the notebook's metadata is embedded, and one inlined
  * renderer script draws every widget from it (sliders recompute in the page, Fit runs the
- * fitter in a Web Worker).
+ * fitter in a Web Worker). A notebook is untrusted input: only fringekit's own widget models
+ * are embedded (other libraries' widgets show their sanitised text fallback), HTML outputs are
+ * sanitised, and a Content-Security-Policy lets only the renderer script run (pagePolicy.ts).
  */
 import { existsSync } from "node:fs";
-import { readFile, rename, rm, writeFile } from "node:fs/promises";
+import { readFile } from "node:fs/promises";
 import path from "node:path";
 import { fileURLToPath } from "node:url";
 import { DataError, InvalidArgumentError } from "../../src/errors.js";
 import { escapeHtml } from "../../src/report/escape.js";
 import { createNotebookProse } from "./notebookMarkdown.js";
+import { writeFileAtomic } from "../figures/atomicWrite.js";
+import { MODULE_NAME } from "../../widgets/src/version.js";
+import { contentSecurityPolicy, jsonForScript, sanitizeOutputHtml } from "./pagePolicy.js";
 
 const STATE_MIME = "application/vnd.jupyter.widget-state+json";
 const VIEW_MIME = "application/vnd.jupyter.widget-view+json";
@@ -28,23 +33,25 @@ export function rendererBundlePath(): string {
 
 type Output = Record<string, any>;
 const text = (value: unknown) => (Array.isArray(value) ? value.join("") : String(value ?? ""));
-/** Text inside <script>: `</` would end the element early. */
+/** The renderer's JavaScript inside <script>: `</script` would end the element early, `<!--` would start a comment state. */
 const scriptSafe = (value: string) => value.replace(/<\/(script)/gi, "<\\/$1").replace(/<!--/g, "<\\!--");
+/** Markdown cell source as HTML (sanitised by the caller like any other notebook HTML). */
+const markdownHtml = (source: string) => `<pre>${escapeHtml(source)}</pre>`;
 
 function renderOutput(output: Output, models: Set<string>): string {
   switch (output.output_type) {
     case "stream":
-      return `<pre class="fk-stream fk-${escapeHtml(String(output.name))}">${escapeHtml(text(output.text))}</pre>`;
+      return `<pre class="fk-stream fk-${output.name === "stderr" ? "stderr" : "stdout"}">${escapeHtml(text(output.text))}</pre>`;
     case "error":
       return `<pre class="fk-error">${escapeHtml(`${output.ename}: ${output.evalue}`)}</pre>`;
     case "display_data":
     case "execute_result": {
       const data = (output.data ?? {}) as Record<string, unknown>;
-      const view = data[VIEW_MIME] as { model_id?: string } | undefined;
-      const fallback = data["text/html"] !== undefined ? `<div class="fk-static-fallback">${text(data["text/html"])}</div>`
+      const view = data[VIEW_MIME] as { model_id?: string; version_major?: number; version_minor?: number } | undefined;
+      const fallback = data["text/html"] !== undefined ? `<div class="fk-static-fallback">${sanitizeOutputHtml(text(data["text/html"]))}</div>`
         : data["text/plain"] !== undefined ? `<pre class="fk-static-fallback">${escapeHtml(text(data["text/plain"]))}</pre>` : "";
       if (view?.model_id && models.has(view.model_id)) {
-        return `<div class="fk-output">${fallback}<script type="${VIEW_MIME}">${scriptSafe(JSON.stringify(view))}</script></div>`;
+        return `<div class="fk-output">${fallback}<script type="${VIEW_MIME}">${jsonForScript({ version_major: view.version_major, version_minor: view.version_minor, model_id: view.model_id })}</script></div>`;
       }
       if (data["image/png"] !== undefined) return `<img alt="figure" src="data:image/png;base64,${escapeHtml(text(data["image/png"]).trim())}">`;
       if (data["image/svg+xml"] !== undefined) return `<img alt="figure" src="data:image/svg+xml;base64,${Buffer.from(text(data["image/svg+xml"])).toString("base64")}">`;
@@ -56,24 +63,41 @@ function renderOutput(output: Output, models: Set<string>): string {
 }
 
 /**
+ * The widget-state document with only fringekit's own models (`model_module` fringekit-widgets):
+ * other libraries' models (HTML, Output, Image widgets…) would be drawn by a stock widget
+ * manager with their own HTML and network access, so they are left out and their views fall
+ * back to the output's text. Undefined when there is no state.
+ */
+function ownModels(document: unknown): { state: Record<string, unknown> } | undefined {
+  if (typeof document !== "object" || document === null) return undefined;
+  const all = (document as { state?: unknown }).state;
+  if (typeof all !== "object" || all === null) return undefined;
+  const own = Object.entries(all as Record<string, any>).filter(([, model]) => model?.model_module === MODULE_NAME);
+  return { ...(document as object), state: Object.fromEntries(own) };
+}
+
+/**
  * The HTML page for a notebook document (parsed .ipynb, nbformat 4) with `renderer` (the
  * renderer bundle's source) inlined.
  */
 export function notebookHtml(notebook: Record<string, any>, renderer: string, title = "notebook"): string {
-  const state = notebook.metadata?.widgets?.[STATE_MIME] as { state?: Record<string, unknown> } | undefined;
+  const state = ownModels(notebook.metadata?.widgets?.[STATE_MIME]);
   const models = new Set(Object.keys(state?.state ?? {}));
+  const rendererText = scriptSafe(renderer);
   const cells = (notebook.cells ?? []) as Record<string, any>[];
   const prose = createNotebookProse(); // Markdown, math, code colours, contents (notebookMarkdown.ts)
   const language = String(notebook.metadata?.language_info?.name ?? notebook.metadata?.kernelspec?.language ?? "");
   const body = cells.map((cell) => {
     const source = text(cell.source);
-    if (cell.cell_type === "markdown") return `<div class="fk-md">${prose.markdown(source)}</div>`;
+    if (cell.cell_type === "markdown") return `<div class="fk-md">${sanitizeOutputHtml(prose.markdown(source))}</div>`;
     if (cell.cell_type !== "code") return "";
     const outputs = ((cell.outputs ?? []) as Output[]).map((o) => renderOutput(o, models)).join("\n");
     return `<div class="fk-cell">${prose.code(source, language)}${outputs}</div>`;
   }).join("\n");
   return `<!doctype html>
-<html lang="en"><head><meta charset="utf-8"><meta name="viewport" content="width=device-width, initial-scale=1">
+<html lang="en"><head><meta charset="utf-8">
+<meta http-equiv="Content-Security-Policy" content="${contentSecurityPolicy([rendererText])}">
+<meta name="viewport" content="width=device-width, initial-scale=1">
 <title>${escapeHtml(title)}</title>
 <style>
 body { font: 14px/1.45 system-ui, sans-serif; color: #1e293b; max-width: 1180px; margin: 24px auto; padding: 0 16px; }
@@ -84,10 +108,10 @@ pre.fk-error { color: #b91c1c; }
 img { max-width: 100%; }
 ${prose.css()}
 </style>
-${state ? `<script type="${STATE_MIME}">${scriptSafe(JSON.stringify(state))}</script>` : ""}
+${state ? `<script type="${STATE_MIME}">${jsonForScript(state)}</script>` : ""}
 </head><body>
 ${prose.tableOfContents()}${body}
-<script id="fringekit-widget-renderer">${scriptSafe(renderer)}</script>
+<script id="fringekit-widget-renderer">${rendererText}</script>
 </body></html>
 `;
 }
@@ -109,12 +133,5 @@ export async function exportNotebookHtml(ipynbPath: string, outPath: string): Pr
   if (notebook.nbformat !== 4) throw new DataError(path.basename(ipynbPath), `nbformat ${notebook.nbformat}`, "convert it to nbformat 4 first (jupyter nbconvert --to notebook)");
   const renderer = await readFile(rendererBundlePath(), "utf8");
   const html = notebookHtml(notebook, renderer, path.basename(ipynbPath, ".ipynb"));
-  const temp = `${outPath}.${process.pid}.tmp`;
-  try {
-    await writeFile(temp, html);
-    await rename(temp, outPath);
-  } catch (error) {
-    await rm(temp, { force: true });
-    throw error;
-  }
+  await writeFileAtomic(outPath, html);
 }

@@ -71,20 +71,80 @@ export function checkFormulaName(name: string, where: string): void {
  * @throws InvalidArgumentError naming the offending part when the formula uses anything outside the whitelist
  */
 export function compileFormula(expression: string, names: FormulaNames): CompiledFormula {
+  checkFormulaText(expression);
+  for (const name of [...names.vectors, ...names.scalars]) checkFormulaName(name, "formula variable name");
+  const tree = parseFormula(expression);
+  try {
+    return fromTree(expression, tree, names);
+  } catch (error) {
+    throw asFormulaError(expression, error);
+  }
+}
+
+/** Largest derivative tree compiled (nodes); a larger one falls back to numerical differentiation. */
+const MAX_DERIVATIVE_NODES = 200_000;
+/** Deepest formula tree accepted (levels): deeper recursion would overflow the call stack. */
+const MAX_FORMULA_DEPTH = 200;
+
+/**
+ * Throws an InvalidArgumentError unless `expression` is a non-empty string of at most
+ * MAX_FORMULA_LENGTH characters (checked before any other work).
+ * @param expression formula text
+ */
+export function checkFormulaText(expression: unknown): asserts expression is string {
   if (typeof expression !== "string" || expression.trim() === "") {
     throw new InvalidArgumentError("formula", expression, "a non-empty formula string such as \"a*exp(-b*x)\"");
   }
   if (expression.length > MAX_FORMULA_LENGTH) {
-    throw new InvalidArgumentError("formula", `${expression.slice(0, 40)}...`, `at most ${MAX_FORMULA_LENGTH} characters`);
+    throw new InvalidArgumentError("formula", `${expression.slice(0, 40)}... (${expression.length} characters)`, `at most ${MAX_FORMULA_LENGTH} characters`);
   }
-  for (const name of [...names.vectors, ...names.scalars]) checkFormulaName(name, "formula variable name");
+}
+
+/** Parses with mathjs; a parse failure, a stack overflow or a tree deeper than MAX_FORMULA_DEPTH is an invalid formula. */
+function parseFormula(expression: string): MathNode {
   let tree: MathNode;
   try {
     tree = parse(expression);
   } catch (error) {
+    if (error instanceof RangeError) throw asFormulaError(expression, error);
     throw new InvalidArgumentError("formula", expression, `it does not parse: ${(error as Error).message}`);
   }
-  return fromTree(expression, tree, names);
+  if (depthOf(tree) > MAX_FORMULA_DEPTH) {
+    throw new InvalidArgumentError("formula", expression, `nesting deeper than ${MAX_FORMULA_DEPTH} levels; write it with fewer nested parentheses or functions`);
+  }
+  return tree;
+}
+
+/** Depth of a parse tree, computed without recursion (so a deep tree cannot overflow the stack here). */
+function depthOf(tree: MathNode): number {
+  let deepest = 0;
+  const stack: [MathNode, number][] = [[tree, 1]];
+  while (stack.length > 0) {
+    const [node, depth] = stack.pop()!;
+    if (depth > deepest) deepest = depth;
+    if (deepest > MAX_FORMULA_DEPTH) return deepest;
+    node.forEach((child: MathNode) => { stack.push([child, depth + 1]); });
+  }
+  return deepest;
+}
+
+/** Node count of a tree (iterative), stopping early past MAX_DERIVATIVE_NODES. */
+function countNodes(tree: MathNode): number {
+  let count = 0;
+  const stack: MathNode[] = [tree];
+  while (stack.length > 0 && count <= MAX_DERIVATIVE_NODES) {
+    const node = stack.pop()!;
+    count++;
+    node.forEach((child: MathNode) => { stack.push(child); });
+  }
+  return count;
+}
+
+/** Any failure while compiling becomes an InvalidArgumentError naming the formula (never an internal error). */
+function asFormulaError(expression: string, error: unknown): InvalidArgumentError {
+  if (error instanceof InvalidArgumentError) return error;
+  const why = error instanceof RangeError ? "it is too large or too deeply nested to compile" : `it cannot be compiled (${(error as Error)?.message ?? String(error)})`;
+  return new InvalidArgumentError("formula", expression.length > 80 ? `${expression.slice(0, 77)}...` : expression, why);
 }
 
 function fromTree(expression: string, tree: MathNode, names: FormulaNames): CompiledFormula {
@@ -105,7 +165,10 @@ function fromTree(expression: string, tree: MathNode, names: FormulaNames): Comp
       if (!derivatives.has(scalarName)) {
         let compiled: CompiledFormula | null = null;
         try {
-          const d = symbolicDerivative(tree, scalarName);
+          // No simplification: mathjs's simplify is exponential on sums of many terms; the
+          // unsimplified derivative is a tree a small multiple of the formula's size.
+          const d = symbolicDerivative(tree, scalarName, { simplify: false });
+          if (countNodes(d) > MAX_DERIVATIVE_NODES) throw new RangeError("derivative too large");
           compiled = fromTree(d.toString(), d, names);
         } catch {
           compiled = null;
@@ -119,10 +182,8 @@ function fromTree(expression: string, tree: MathNode, names: FormulaNames): Comp
 
 /** Collects the free symbol names of a parsed formula that are not constants or function names. */
 export function freeSymbols(expression: string): string[] {
-  let tree: MathNode;
-  try { tree = parse(expression); } catch (error) {
-    throw new InvalidArgumentError("formula", expression, `it does not parse: ${(error as Error).message}`);
-  }
+  checkFormulaText(expression);
+  const tree = parseFormula(expression);
   const found: string[] = [];
   tree.traverse((node: MathNode, _path: string, parent: MathNode | null) => {
     if (node.type !== "SymbolNode") return;

@@ -39,7 +39,10 @@ export function parseFormula(text: string): MathNode {
   return formulaEngine().parse(text);
 }
 
-/** Symbolic derivative of a syntax tree with respect to `name`. */
-export function formulaDerivative(tree: MathNode, name: string): MathNode {
-  return formulaEngine().derivative(tree, name);
+/**
+ * Symbolic derivative of a syntax tree with respect to `name`. Pass `{ simplify: false }` for
+ * untrusted formulas: mathjs's simplification is exponential on sums of many terms.
+ */
+export function formulaDerivative(tree: MathNode, name: string, options?: { simplify: boolean }): MathNode {
+  return formulaEngine().derivative(tree, name, options);
 }

@@ -5,7 +5,9 @@
  */
 import * as utifModule from "utif2";
 import { DataError, FringekitError } from "../errors.js";
+import { InflateLimitExceeded, inflatedSize } from "./boundedInflate.js";
 import { describe } from "./decodePng.js";
+import { formatBytes, INFLATE_SLACK_BYTES } from "./limits.js";
 import type { ImageStack, PixelArray } from "./imageTypes.js";
 import { readTiffDirectories, type TiffPage } from "./readTiffDirectories.js";
 
@@ -47,6 +49,7 @@ export function decodeTiff(bytes: Uint8Array, source: string): ImageStack {
 }
 
 function decodePage(bytes: Uint8Array, buffer: ArrayBuffer, page: TiffPage, littleEndian: boolean, source: string, index: number): PixelArray {
+  if (page.compression === 8 || page.compression === 32946) checkDeflateStrips(bytes, page, source, index);
   const raw = page.compression === 1 ? concatStrips(bytes, page) : decompress(buffer, page, source, index);
   const pixels = page.width * page.height;
   const spp = page.samplesPerPixel;
@@ -97,6 +100,26 @@ function concatStrips(bytes: Uint8Array, page: TiffPage): Uint8Array {
     at += page.stripByteCounts[s]!;
   }
   return out;
+}
+
+/**
+ * Inflates each Deflate strip with a ceiling of the bytes its rows hold (plus a small slack)
+ * before the decoder inflates it without one: a decompression bomb stops here.
+ */
+function checkDeflateStrips(bytes: Uint8Array, page: TiffPage, source: string, index: number): void {
+  const rowBytes = page.width * page.samplesPerPixel * (page.bitsPerSample / 8);
+  page.stripOffsets.forEach((offset, s) => {
+    const rows = Math.min(page.rowsPerStrip, page.height - s * page.rowsPerStrip);
+    const limit = rows * rowBytes + INFLATE_SLACK_BYTES;
+    try {
+      inflatedSize(bytes.subarray(offset, offset + page.stripByteCounts[s]!), limit);
+    } catch (error) {
+      if (error instanceof InflateLimitExceeded) {
+        throw new DataError(source, `page ${index}, strip ${s + 1} inflates to more than the ${formatBytes(rows * rowBytes)} its ${rows} rows hold (a decompression bomb or a corrupt file)`, "export the image again; do not load files from untrusted sources");
+      }
+      throw new DataError(source, `corrupt TIFF: page ${index}, strip ${s + 1} cannot be decompressed (${describe(error)})`, "export the image again, or save it without compression");
+    }
+  });
 }
 
 function decompress(buffer: ArrayBuffer, page: TiffPage, source: string, index: number): Uint8Array {

@@ -10,6 +10,14 @@ export const MAX_TABLE_BYTES = 64 * 1024 * 1024;
 export const MAX_IMAGE_BYTES = 512 * 1024 * 1024;
 /** Largest decoded image (pixels over all pages): 2²⁸ ≈ 268 million, about 2 GiB as float64. */
 export const MAX_IMAGE_PIXELS = 2 ** 28;
+/**
+ * Largest decoded sample data of an image (bytes over all pages: pixels × channels × bytes per
+ * sample): 512 MiB, e.g. 60 frames of 2048² 16-bit grey or one 16384² 16-bit grey frame. It
+ * bounds the memory of decoding (README, "Limits and security") and the work of inflating.
+ */
+export const MAX_DECODED_IMAGE_BYTES = 512 * 1024 * 1024;
+/** Slack allowed past the inflated size a header implies (bytes): trailing padding some writers add. */
+export const INFLATE_SLACK_BYTES = 64 * 1024;
 /** Largest number of data rows in a table. */
 export const MAX_TABLE_ROWS = 5_000_000;
 

@@ -81,7 +81,7 @@ export function parseTable(text: string, options: TableOptions = {}): LoadedProf
   let headers: ColumnHeader[];
   let dataRows = split.rows;
   if (firstIsHeader) {
-    headers = mergeUnitCells(first.cells, split.delimiter).map(parseColumnHeader);
+    headers = mergeUnitCells(first.cells, split.delimiter).map((cell) => parseColumnHeader(checkHeaderCell(cell, source, first.line)));
     dataRows = split.rows.slice(1);
   } else {
     headers = headerFromComment(split.leadingComments, split.delimiter, first.cells.length) ?? first.cells.map(() => ({ name: "", unit: "", raw: "" }));
@@ -215,6 +215,17 @@ function positionScale(header: ColumnHeader, rawX: Float64Array, options: TableO
 }
 
 /** In space-separated headers, "position [mm]" splits into two cells: join a bracketed unit to its name. */
+/** Longest header cell (characters): column names with units are short; the header parser's cost grows with length. */
+export const MAX_HEADER_CELL = 200;
+
+/** Returns `cell`, or throws a DataError when it is longer than MAX_HEADER_CELL. */
+function checkHeaderCell(cell: string, source: string, line: number): string {
+  if (cell.length > MAX_HEADER_CELL) {
+    throw new DataError(source, `a header cell of ${cell.length} characters, above the limit of ${MAX_HEADER_CELL}`, "shorten the column names (e.g. \"position [mm]\")", line);
+  }
+  return cell;
+}
+
 function mergeUnitCells(cells: string[], delimiter: Delimiter): string[] {
   if (delimiter !== "whitespace") return cells;
   const out: string[] = [];
@@ -236,6 +247,7 @@ function headerFromComment(comments: string[], delimiter: Delimiter, width: numb
   if (last === undefined) return undefined;
   const cells = delimiter === "whitespace" ? last.split(/\s{2,}|\t/) : last.split(delimiter);
   if (cells.length !== width) return undefined;
+  if (cells.some((cell) => cell.length > MAX_HEADER_CELL)) return undefined; // a long comment is prose, not a header
   const headers = cells.map(parseColumnHeader);
   return headers.some((h) => isPositionName(h.name) || h.unit !== "") ? headers : undefined;
 }

@@ -4,7 +4,7 @@
  * bounded time. Format: TIFF Revision 6.0 (Adobe, 1992), sections 2 and 8.
  */
 import { DataError } from "../errors.js";
-import { MAX_IMAGE_PIXELS } from "./limits.js";
+import { formatBytes, MAX_DECODED_IMAGE_BYTES, MAX_IMAGE_PIXELS } from "./limits.js";
 
 /** The baseline fields of one page that the decoder needs. */
 export interface TiffPage {
@@ -58,6 +58,7 @@ export function readTiffDirectories(bytes: Uint8Array, source: string): TiffStru
   const seen = new Set<number>();
   let offset = u32(4);
   let pixels = 0;
+  let decodedBytes = 0;
   while (offset !== 0) {
     if (seen.has(offset)) throw corrupt(`directory chain loops back to offset ${offset}`);
     if (pages.length >= MAX_PAGES) throw new DataError(source, `more than ${MAX_PAGES} pages`, "split the stack");
@@ -88,10 +89,33 @@ export function readTiffDirectories(bytes: Uint8Array, source: string): TiffStru
     const page = pages[pages.length - 1]!;
     pixels += page.width * page.height;
     if (pixels > MAX_IMAGE_PIXELS) throw new DataError(source, `the image stack holds more than ${MAX_IMAGE_PIXELS} pixels`, "crop the frames or split the stack");
+    decodedBytes += page.width * page.height * page.samplesPerPixel * (page.bitsPerSample / 8);
+    if (decodedBytes > MAX_DECODED_IMAGE_BYTES) {
+      throw new DataError(source, `the image stack decodes to more than ${formatBytes(MAX_DECODED_IMAGE_BYTES)} (pixels × channels × bytes per sample, up to page ${pages.length})`, "crop the frames, split the stack or save it as greyscale");
+    }
     offset = u32(end);
   }
   if (pages.length === 0) throw corrupt("no image directory");
+  checkStripsDisjoint(pages, corrupt);
   return { littleEndian: le, pages };
+}
+
+/**
+ * Throws when two strips (of any pages) share bytes: a legitimate file stores each strip once;
+ * aliased strips make a small file decode to many times its size.
+ */
+function checkStripsDisjoint(pages: readonly TiffPage[], corrupt: (what: string) => DataError): void {
+  const ranges: [number, number, number, number][] = [];
+  pages.forEach((page, p) => page.stripOffsets.forEach((start, s) => {
+    const count = page.stripByteCounts[s]!;
+    if (count > 0) ranges.push([start, start + count, p + 1, s + 1]);
+  }));
+  ranges.sort((a, b) => a[0] - b[0]);
+  for (let i = 1; i < ranges.length; i++) {
+    const [start, , page, strip] = ranges[i]!;
+    const [, previousEnd, previousPage, previousStrip] = ranges[i - 1]!;
+    if (start < previousEnd) throw corrupt(`strip ${strip} of page ${page} overlaps strip ${previousStrip} of page ${previousPage} (strips must not share bytes)`);
+  }
 }
 
 const NEEDED = new Set([256, 257, 258, 259, 262, 273, 277, 278, 279, 284, 317, 322, 339]);
@@ -129,7 +153,9 @@ function pageFrom(tags: Map<number, number[]>, source: string, index: number, fi
   if (stripOffsets.length !== stripByteCounts.length) throw corrupt(`page ${index} has ${stripOffsets.length} strip offsets but ${stripByteCounts.length} byte counts`);
   const rowsPerStrip = Math.min(one(278, height), height);
   if (rowsPerStrip === 0) throw corrupt(`page ${index} has zero rows per strip`);
-  if (stripOffsets.length < Math.ceil(height / rowsPerStrip)) throw corrupt(`page ${index} has ${stripOffsets.length} strips for ${height} rows`);
+  // TIFF 6.0 §3 (StripsPerImage): exactly ceil(height / rowsPerStrip) strips for chunky pixels.
+  const strips = Math.ceil(height / rowsPerStrip);
+  if (stripOffsets.length !== strips) throw corrupt(`page ${index} has ${stripOffsets.length} strips for ${height} rows of ${rowsPerStrip} (${strips} expected)`);
   for (let s = 0; s < stripOffsets.length; s++) {
     if ((stripOffsets[s] as number) + (stripByteCounts[s] as number) > fileLength) {
       throw corrupt(`page ${index}: strip ${s + 1} ends at byte ${(stripOffsets[s] as number) + (stripByteCounts[s] as number)}, beyond the end of the file (${fileLength} bytes)`);

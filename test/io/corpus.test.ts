@@ -31,6 +31,10 @@ const cases: [string, RegExp][] = [
   ["signed.tif", /^signed\.tif: page 1: a 16-bit signed integer image is not supported; /],
   ["loop.tif", /^loop\.tif: corrupt or truncated TIFF: directory chain loops back/],
   ["jpeg.jpg", /^jpeg\.jpg: not a supported file \(a JPEG image/],
+  ["bomb-idat.png", /^bomb-idat\.png: the pixel data inflate to more than the 2 bytes the 1 × 1 header implies \(a decompression bomb/],
+  ["aliased-strips.tif", /^aliased-strips\.tif: corrupt or truncated TIFF: strip \d+ of page 1 overlaps strip \d+ of page 1/],
+  ["long-header.csv", /^long-header\.csv:1: a header cell of 5009 characters, above the limit of 200; /],
+  ["escape-cell.csv", /^escape-cell\.csv:3: a non-numeric cell "\\x1b\]0;owned\\x07\\x1b\[2J" in column "intensity"/],
 ];
 
 describe("readProfile(bad file) gives a one-line DataError naming the file", () => {
@@ -50,6 +54,16 @@ describe("readProfile(bad file) gives a one-line DataError naming the file", () 
       expect(corpus(name)).toEqual(before); // the input is never changed
     });
   }
+});
+
+describe("readImage(bomb-iccp.png)", () => {
+  it("readImage(bomb-iccp.png) decodes the image and never inflates the iCCP chunk", async () => {
+    const { readImage } = await import("../../src/index.js");
+    const start = performance.now();
+    const stack = readImage(corpus("bomb-iccp.png"), "bomb-iccp.png");
+    expect([stack.width, stack.height, Array.from(stack.pages[0]!)]).toEqual([4, 2, [1, 2, 3, 4, 5, 6, 7, 8]]);
+    expect(performance.now() - start).toBeLessThan(2000);
+  });
 });
 
 describe("readProfile(frame) without pixel pitch", () => {

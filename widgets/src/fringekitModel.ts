@@ -1,5 +1,6 @@
 /** Base model of every fringekit widget: module names and versions for the widget protocol. */
 import { DOMWidgetModel } from "@jupyter-widgets/base";
+import { checkBufferPaths } from "./bufferPaths.js";
 import { MODULE_NAME, MODULE_VERSION } from "../shared/version.js";
 
 /** Defaults shared by every fringekit model: `_model_module`, `_view_module` and their versions. */
@@ -16,6 +17,23 @@ export function moduleDefaults(modelName: string, viewName: string): Record<stri
 
 /** Base class; subclasses spread `super.defaults()` and `moduleDefaults(...)`. */
 export class FringekitModel extends DOMWidgetModel {
+  /**
+   * Refuses a comm message whose `buffer_paths` hold `__proto__`, `constructor` or `prototype`
+   * before the base class's put_buffers walks them (prototype pollution in the page).
+   */
+  override _handle_comm_msg(msg: Parameters<DOMWidgetModel["_handle_comm_msg"]>[0]): Promise<void> {
+    const paths = (msg.content.data as { buffer_paths?: unknown }).buffer_paths;
+    if (paths !== undefined) {
+      try {
+        checkBufferPaths(paths);
+      } catch (error) {
+        console.warn(`fringekit widget: message refused: ${(error as Error).message}`);
+        return Promise.resolve();
+      }
+    }
+    return super._handle_comm_msg(msg);
+  }
+
   /** True when a kernel is on the other end (live notebook), false in a static page. */
   get hasKernel(): boolean {
     return (this as unknown as { comm?: unknown }).comm !== undefined && (this as unknown as { comm_live?: boolean }).comm_live !== false;

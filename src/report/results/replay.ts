@@ -67,6 +67,7 @@ export function replayResults(
   engine: ReplayEngine = DEFAULT_REPLAY_ENGINE,
   options: ReplayOptions = {},
 ): ReplayReport {
+  checkReplayCost(doc);
   const { data, dataCheck } = chooseData(doc, profile, options);
   const relative = options.relative ?? 1e-6;
   const fraction = options.stderrFraction ?? 1e-3;
@@ -92,6 +93,60 @@ export function replayResults(
       differences.slice(0, 5).map((d) => `${d.fit} ${d.quantity} ${d.recorded} → ${d.replayed} (allowed ${d.allowed})`).join("; ") +
       (differences.length > 5 ? `; and ${differences.length - 5} more` : "") + ".";
   return { reproduced, differences, replayed, dataCheck, summary };
+}
+
+/**
+ * Cost limits of replaying a results file, which may come from anyone: checked before any
+ * model is built or fit run (README, "Limits and security").
+ * - fits: fits in one document
+ * - spectrumSamples: samples of a source spectrum table
+ * - nodes: pixelNodes and blurNodes (each)
+ * - evaluationCost: points × pixel nodes × blur nodes × spectrum samples (pattern evaluations per model evaluation)
+ * - maxEvaluations: the largest evaluation budget a fit may ask for
+ */
+export const REPLAY_LIMITS = { fits: 100, spectrumSamples: 10_000, nodes: 64, evaluationCost: 50_000_000, maxEvaluations: 100_000 } as const;
+
+/** Defaults of the detector quadrature (physics/detector.ts), used when a record gives none. */
+const DEFAULT_PIXEL_NODES = 5;
+const DEFAULT_BLUR_NODES = 16;
+
+/**
+ * Throws a DataError naming the limit when replaying `doc` would cost more than REPLAY_LIMITS allow.
+ * @param doc a parsed results document (untrusted)
+ */
+export function checkReplayCost(doc: ResultsDocument): void {
+  const source = doc.input?.source ?? "the results file";
+  const refuse = (what: string) => { throw new DataError(source, what, "this results file asks for more work than replay allows; fit the data again instead"); };
+  const fits = Array.isArray(doc.fits) ? doc.fits : [];
+  if (fits.length > REPLAY_LIMITS.fits) refuse(`${fits.length} fits, above the limit of ${REPLAY_LIMITS.fits}`);
+  const points = Number(doc.input?.points) || 0;
+  for (const record of fits) {
+    const where = `fit "${String(record?.label ?? "").slice(0, 40)}"`;
+    const options = (record?.modelOptions ?? {}) as Record<string, unknown>;
+    const count = (name: "pixelNodes" | "blurNodes", fallback: number): number => {
+      const value = options[name];
+      if (value === undefined) return fallback;
+      if (typeof value !== "number" || !(value <= REPLAY_LIMITS.nodes)) refuse(`${where}: ${name} ${String(value).slice(0, 20)}, above the limit of ${REPLAY_LIMITS.nodes}`);
+      return value as number;
+    };
+    const pixelNodes = count("pixelNodes", DEFAULT_PIXEL_NODES);
+    const blurNodes = count("blurNodes", DEFAULT_BLUR_NODES);
+    const spectrum = options.spectrum as { wavelengths?: unknown; weights?: unknown } | undefined;
+    const samples = spectrum === undefined ? 1 : Math.max(lengthOf(spectrum?.wavelengths), lengthOf(spectrum?.weights), 1);
+    if (samples > REPLAY_LIMITS.spectrumSamples) refuse(`${where}: a spectrum of ${samples} samples, above the limit of ${REPLAY_LIMITS.spectrumSamples}`);
+    const cost = points * pixelNodes * blurNodes * samples;
+    if (cost > REPLAY_LIMITS.evaluationCost) {
+      refuse(`${where}: a model cost of ${cost.toExponential(2)} pattern evaluations per model evaluation (${points} points × ${pixelNodes} × ${blurNodes} nodes × ${samples} spectrum samples), above the limit of ${REPLAY_LIMITS.evaluationCost.toExponential(0)}`);
+    }
+    const budget = (record?.fitOptions as Record<string, unknown> | undefined)?.maxEvaluations;
+    if (budget !== undefined && !(typeof budget === "number" && budget <= REPLAY_LIMITS.maxEvaluations)) {
+      refuse(`${where}: maxEvaluations ${String(budget).slice(0, 20)}, above the limit of ${REPLAY_LIMITS.maxEvaluations}`);
+    }
+  }
+}
+
+function lengthOf(value: unknown): number {
+  return Array.isArray(value) ? value.length : 0;
 }
 
 /**
