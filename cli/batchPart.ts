@@ -47,7 +47,7 @@ export interface PartRow extends BatchRow {
 }
 
 /** Options that do not change any result and so are not part of a batch's identity. */
-export const NOT_IDENTITY = new Set(["out", "jobs", "shard", "resume", "quiet", "list", "slurm-script", "tasks"]);
+export const NOT_IDENTITY = new Set(["out", "jobs", "shard", "resume", "quiet", "list", "slurm-script", "tasks", "accept-doubtful"]);
 
 /** The folder of the fringekit package that holds the running code (where its package.json is). */
 export function packageRoot(): string | undefined {
@@ -187,7 +187,7 @@ function isDone(value: unknown): boolean {
 
 function isRow(value: unknown): value is PartRow {
   const r = value as Partial<PartRow> | null;
-  return !!r && Number.isInteger(r.row) && typeof r.file === "string" && (r.status === "ok" || r.status === "not-converged" || r.status === "error") && typeof r.message === "string";
+  return !!r && Number.isInteger(r.row) && typeof r.file === "string" && (r.status === "ok" || r.status === "doubtful" || r.status === "not-converged" || r.status === "error") && typeof r.message === "string";
 }
 
 /**

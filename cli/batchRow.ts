@@ -3,7 +3,7 @@
  * status, never throwing (a bad file is a row with status "error" and the one-line message);
  * and the rows as a CSV table that is safe to open in a spreadsheet.
  */
-import { FringekitError } from "../src/advanced.js";
+import { DOUBTFUL_CODES, FringekitError } from "../src/advanced.js";
 import { fitFile } from "./commands/fit.js";
 import { fitJson, type FitJson } from "./fitJson.js";
 import { notConvergedText } from "./fitSettings.js";
@@ -21,8 +21,9 @@ export interface BatchRow {
   file: string;
   /** Page of an image stack (1 = first), present only for `--page each`. */
   page?: number;
-  status: "ok" | "not-converged" | "error";
-  /** Stop message, or the error. */
+  /** "doubtful": converged, but a check says the fit cannot be trusted (poor fit, no fringe, aliased fringe). */
+  status: "ok" | "doubtful" | "not-converged" | "error";
+  /** Stop message, the checks' warnings of a doubtful fit, or the error. */
   message: string;
   /** The fit as `fringekit fit --json` prints it; null when the file could not be fitted. */
   fit: FitJson | null;
@@ -39,7 +40,11 @@ export function batchRow(input: BatchInput, modelId: string, args: ParsedArgs): 
   try {
     const pageArgs = input.page === undefined ? args : withPage(args, input.page);
     const { loaded, result, warnings, assumed } = fitFile(input.path, modelId, pageArgs);
-    return { ...where, status: result.converged ? "ok" : "not-converged", message: result.converged ? result.message : notConvergedText(result), fit: fitJson(result, loaded.profile.provenance, warnings, assumed) };
+    const fit = fitJson(result, loaded.profile.provenance, warnings, assumed);
+    if (!result.converged) return { ...where, status: "not-converged", message: notConvergedText(result), fit };
+    // A converged fit that a check calls doubtful says so in the row itself, not only in its JSON.
+    const doubts = result.warnings.filter((w) => DOUBTFUL_CODES.includes(w.code)).map((w) => w.message);
+    return doubts.length > 0 ? { ...where, status: "doubtful", message: doubts.join("; "), fit } : { ...where, status: "ok", message: result.message, fit };
   } catch (error) {
     const message = error instanceof FringekitError || error instanceof UsageError ? error.message : `internal error: ${error instanceof Error ? error.message : String(error)}`;
     return { ...where, status: "error", message, fit: null };

@@ -28,7 +28,8 @@ The default model is two-slit; "fringekit models" lists the models and their par
 Batch: --list names a file with one data path per line; --page each fits every page of a TIFF
 stack; --shard I/N fits inputs I, I+N, I+2N, ... (counted from 1) into a part file
 (results.part-I-of-N.jsonl; inside a Slurm array job the task's shard is used when --shard is
-not given); --resume continues an interrupted run; fringekit merge joins the parts.
+not given); --resume continues an interrupted run; fringekit merge joins the parts. A row
+whose fit converged but is doubtful has status "doubtful" (exit 3 unless --accept-doubtful).
 Saturated samples (at a detector top code such as 4095) are masked in tables and frames;
 --keep-saturated keeps them (--mask-saturated, the default, is still accepted).
 Checks on every fit: a χ² goodness-of-fit test when the noise scale is known (Poisson counts or a

@@ -66,7 +66,7 @@ export function safeText(text: string, max = 200): string {
 }
 
 function formatValue(value: unknown): string {
-  if (typeof value === "string") return value.length > 80 ? `${JSON.stringify(value.slice(0, 80)).replace(CONTROL, "?")}… (${value.length} characters)` : JSON.stringify(value).replace(CONTROL, "?");
+  if (typeof value === "string") return value.length > 160 ? `${JSON.stringify(value.slice(0, 160)).replace(CONTROL, "?")}… (${value.length} characters)` : JSON.stringify(value).replace(CONTROL, "?");
   if (typeof value === "number" || typeof value === "boolean" || value === null || value === undefined) {
     return String(value);
   }

@@ -17,6 +17,7 @@ import { progressReporter } from "../batchProgress.js";
 import { batchCsv, batchRow, type BatchInput, type BatchRow } from "../batchRow.js";
 import { parseShard, shardFromSlurm, shardPositions, MAX_SHARDS, type Shard } from "../batchShard.js";
 import { slurmScript } from "../batchSlurm.js";
+import { DOUBTFUL_EXIT } from "../doubtful.js";
 import { checkOutputPath, writeOutputFile } from "../files.js";
 import { parseArgs, type ParsedArgs } from "../parseArgs.js";
 import type { CommandOutput } from "../output.js";
@@ -110,29 +111,34 @@ export async function batchCommand(words: readonly string[]): Promise<CommandOut
   if (shard) {
     writer.finish();
     notes.push(`shard ${shard.index}/${shard.count}${shard.from === "Slurm array" ? " (from the Slurm array task)" : ""}: ${positions.length} of ${inputs.length} inputs; part written to ${part}; join the parts with fringekit merge`);
-    return summary(ordered, notes);
+    return summary(ordered, notes, undefined, args.flags.has("accept-doubtful"));
   }
   writeOutputFile(out, /\.json$/i.test(out) ? `${JSON.stringify(ordered, null, 2)}\n` : batchCsv(ordered), inputs.map((i) => i.path));
   writer.discard();
   notes.push(`results in ${out}`);
-  return summary(ordered, notes);
+  return summary(ordered, notes, undefined, args.flags.has("accept-doubtful"));
 }
 
 /** Start of the message of a row whose worker thread failed (--resume tries it again). */
 const WORKER_FAILED = "the worker thread stopped while fitting";
 
 /**
- * The exit code and stderr summary of rows ("N inputs: A fitted, B did not converge, C could not
- * be read or fitted").
- * @param rows  the rows
- * @param notes extra lines (the last one ends the first line)
- * @param noun  what a row is ("file", or "frame" for pages of stacks)
+ * The exit code and stderr summary of rows ("N inputs: A fitted, D doubtful, B did not converge,
+ * C could not be read or fitted"). Exit 1 when any input failed or did not converge; else 3
+ * (DOUBTFUL_EXIT, as `fringekit fit`) when a converged fit is doubtful, unless `accepted`
+ * (--accept-doubtful); else 0.
+ * @param rows     the rows
+ * @param notes    extra lines (the last one ends the first line)
+ * @param noun     what a row is ("file", or "frame" for pages of stacks)
+ * @param accepted whether doubtful fits are accepted (exit 0)
  */
-export function summary(rows: readonly BatchRow[], notes: readonly string[], noun = rows.some((r) => r.page !== undefined) ? "frame" : "file"): CommandOutput {
+export function summary(rows: readonly BatchRow[], notes: readonly string[], noun = rows.some((r) => r.page !== undefined) ? "frame" : "file", accepted = false): CommandOutput {
   const failed = rows.filter((r) => r.status === "error").length;
   const notConverged = rows.filter((r) => r.status === "not-converged").length;
-  const head = `${rows.length} ${noun}${rows.length === 1 ? "" : "s"}: ${rows.length - failed - notConverged} fitted, ${notConverged} did not converge, ${failed} could not be read or fitted`;
-  return { stdout: "", exitCode: failed + notConverged > 0 ? 1 : 0, stderr: [`${head}${notes.length > 0 ? `; ${notes[notes.length - 1]}` : ""}`, ...notes.slice(0, -1)] };
+  const doubtful = rows.filter((r) => r.status === "doubtful").length;
+  const head = `${rows.length} ${noun}${rows.length === 1 ? "" : "s"}: ${rows.length - failed - notConverged - doubtful} fitted, ${doubtful > 0 ? `${doubtful} doubtful (the model does not describe the data, or no fringe; see the message column), ` : ""}${notConverged} did not converge, ${failed} could not be read or fitted`;
+  const exitCode = failed + notConverged > 0 ? 1 : doubtful > 0 && !accepted ? DOUBTFUL_EXIT : 0;
+  return { stdout: "", exitCode, stderr: [`${head}${notes.length > 0 ? `; ${notes[notes.length - 1]}` : ""}`, ...notes.slice(0, -1)] };
 }
 
 function seconds(ms: number): string {

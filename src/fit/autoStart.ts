@@ -42,8 +42,7 @@ export function autoStartCandidates(x: Float64Array, y: Float64Array, wavelength
 
   // 1. Fringe frequency from the spectrum (no fringes: a short smoothing window instead).
   if (!fringes) return startsAtFrequency(grid, x, dx, null, wavelength, distance, smallAngle, false).slice(0, count).map((r) => r.start);
-  const frequencies = fringeFrequencyCandidates(grid, dx);
-  if (frequencies.length === 0) return [];
+  const frequencies = [...fringeFrequencyCandidates(grid, dx), ...fewFringeFrequencies(grid.length, dx)];
   // Each spectral candidate gives its own starts; the two best of each compete by residual sum.
   const results = frequencies.flatMap((f) => startsAtFrequency(grid, x, dx, f, wavelength, distance, smallAngle, true).slice(0, 2));
   results.sort((p, q) => p.rss - q.rss);
@@ -146,6 +145,17 @@ export function fringeFrequencyCandidates(grid: Float64Array, dx: number, count 
     if (out.every((f) => Math.abs(f.frequency - more.frequency) * more.size * dx > 8)) out.push(more);
   }
   return out;
+}
+
+/**
+ * Frequencies of 2 to 4 fringe periods across the window (cycles/m). With so few fringes the
+ * fringe peak of the spectrum merges with the envelope's low-frequency lobe and the spectral
+ * search misses it; these candidates cost only a linear fit each and are ranked with the rest.
+ * (Fewer than two periods cannot be told from the envelope: fitChecks calls such a fit fringe-free.)
+ */
+function fewFringeFrequencies(n: number, dx: number): { frequency: number; size: number }[] {
+  const size = nextPowerOfTwo(n) * 4;
+  return [2, 2.5, 3, 4].map((cycles) => ({ frequency: cycles / (n * dx), size }));
 }
 
 /** Fringe spatial frequency (cycles/m) from the Hann-windowed, 4× zero-padded spectrum (rank > 0: the rank-th strongest local maximum, 0 the strongest); null when no peak. */

@@ -40,6 +40,10 @@ export function defaultGeometryWarnings(model: Model, options: FitOptions): FitW
 /** Models whose fringe period is λL/d on the detector (they have separation, wavelength and distance). */
 function fringePeriod(result: FitResult): number | undefined {
   const value = (name: string): number | undefined => result.parameters.find((p) => p.name === name)?.value;
+  // The near-field pattern has no single fringe period λL/d (shadows of the slits with Fresnel
+  // ripples, interference only where the diffracted beams overlap): the test does not apply;
+  // the goodness-of-fit test still judges the fit.
+  if (result.modelId === "two-slit-fresnel") return undefined;
   const d = value("separation"), lambda = value("wavelength"), L = value("distance");
   if (d === undefined || lambda === undefined || L === undefined) return undefined;
   return d > 0 ? (lambda * L) / d : Infinity;
@@ -62,7 +66,14 @@ export function addFitChecks(prep: PreparedFit, result: FitResult, options: FitO
     const detection = detectFringes(prep.x, prep.y, Number.isFinite(period) ? period : undefined);
     if (detection) {
       result.goodness.fringes = detection;
-      if (!detection.significant) {
+      // A "fringe" spanning the data fewer than twice is indistinguishable from the envelope's
+      // shape (a smooth beam fits as one slow cosine), however strong its spectral power.
+      const cycles = Number.isFinite(period) && period > 0 ? (prep.x[prep.x.length - 1] - prep.x[0]) / period : Infinity;
+      if (detection.significant && cycles < MIN_FRINGE_CYCLES) {
+        detection.significant = false;
+        detection.fittedCycles = cycles;
+        warnings.push({ code: "no-fringes", message: tooFewCyclesMessage(detection, cycles) });
+      } else if (!detection.significant) {
         warnings.push({
           code: "no-fringes",
           message: noFringeMessage(detection),
@@ -80,6 +91,15 @@ export function addFitChecks(prep: PreparedFit, result: FitResult, options: FitO
   // Data and geometry first: they explain what follows.
   result.warnings = [...warnings, ...result.warnings];
   return result;
+}
+
+/** Fewest fringe periods across the data that a fringe can be told from the envelope by. */
+const MIN_FRINGE_CYCLES = 2;
+
+/** "no significant fringe …" for a fitted period longer than half the data. */
+function tooFewCyclesMessage(d: FringeDetection, cycles: number): string {
+  const probability = (d.fittedFalseAlarm ?? d.falseAlarm).toPrecision(2);
+  return `no significant fringe in these data at the fitted period: the fitted period (${(d.fittedPeriodSamples ?? d.peakPeriodSamples).toPrecision(3)} samples) covers the data only ${cycles.toFixed(1)} times, too few to tell a fringe from the envelope (at least ${MIN_FRINGE_CYCLES} are needed), whatever its spectral false-alarm probability ${probability} (a fringe needs < 0.001); separation, visibility and phase are not meaningful`;
 }
 
 /** "no significant fringe …" with the numbers of the test. */

@@ -44,6 +44,8 @@ export interface FringeDetection {
   /** Power at the fitted frequency (±1 bin) over the local floor (dimensionless) and its false-alarm probability. */
   fittedPowerRatio?: number;
   fittedFalseAlarm?: number;
+  /** Fitted periods across the data, set when fewer than two made the fringe not significant (dimensionless). */
+  fittedCycles?: number;
 }
 
 const SMALLEST_K = 3;

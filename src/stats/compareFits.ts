@@ -59,7 +59,7 @@ export function compareFits(fits: readonly (FitResult | ComparisonEntry)[], opti
   rows.sort((a, b) => a[deltaKey] - b[deltaKey] || a.k - b.k);
   const tests = nestedPairs(entries, options.nested ?? []);
   const warnings = collectWarnings(rows, entries);
-  const unreliable = unreliableFits(entries);
+  const unreliable = unreliableFits(entries, rows[0].label);
   return {
     criterion,
     noise: entries[0].fit.noise,
@@ -79,13 +79,21 @@ export const FAILED_FIT_CODES: readonly string[] = ["poor-fit", "no-fringes", "f
  * The fits of a comparison that plainly failed: not converged (with the solver's reason), or a
  * warning whose code is in {@link FAILED_FIT_CODES} (with its message). Ranking such a fit against
  * the others would compare a model with a failure to find its optimum, so no preference is stated.
+ * A poor fit ("poor-fit") of a model that ranks below `best` is what a comparison is for (the
+ * wrong model does not describe the data) and does not count; a poor fit of the best-ranked model
+ * does: then no candidate describes the data.
+ * @param best label of the best-ranked fit (omit to count every poor fit)
  */
-export function unreliableFits(entries: readonly { fit: FitResult; label: string }[]): UnreliableFit[] {
+export function unreliableFits(entries: readonly { fit: FitResult; label: string }[], best?: string): UnreliableFit[] {
   const out: UnreliableFit[] = [];
   for (const { fit, label } of entries) {
     const reasons: string[] = [];
     if (!fit.converged) reasons.push(`did not converge (${fit.message})`);
-    for (const w of fit.warnings) if (FAILED_FIT_CODES.includes(w.code)) reasons.push(`${w.code}: ${w.message}`);
+    for (const w of fit.warnings) {
+      if (!FAILED_FIT_CODES.includes(w.code)) continue;
+      if (w.code === "poor-fit" && best !== undefined && label !== best) continue;
+      reasons.push(`${w.code}: ${w.message}`);
+    }
     if (reasons.length > 0) out.push({ label, reasons });
   }
   return out;

@@ -38,7 +38,7 @@ const cells = [
   'import { coherenceScan } from "fringekit/widgets";\n' +
   'const lines = readdirSync("data/scan").filter((n) => n.endsWith(".csv")).sort().map((n) => fitProfile(readProfile(readFileSync(`data/scan/${n}`), { source: n }).profile, getModel("two-slit"), { fix: bench }));\n' +
   'const get = (f, name) => f.parameters.find((p) => p.name === name);\n' +
-  'const scan = coherenceScanProfile(lines.map((f) => get(f, "separation").value), lines.map((f) => get(f, "visibility").value), lines.map((f) => get(f, "visibility").stderr));\n' +
+  'const scan = coherenceScanProfile(lines.map((f) => get(f, "separation").value), lines.map((f) => get(f, "visibility").value), lines.map((f) => get(f, "visibility").uncertainty));\n' +
   'const discModel = getModel("coherence-disc");\nconst disc = fitProfile(scan, discModel, { fix: { wavelength: 680e-9, sourceDistance: 0.40 }, start: { visibility: 0.9, diameter: 0.1e-3 } });\n' +
   'coherenceScan(scan, disc, discModel, { sourceLabel: "uniform disc" }).display();',
 ];

@@ -67,9 +67,9 @@ describe("compareFits", () => {
     expect(result.verdict).toMatch(/^No model is preferred: the fit of two-slit-fresnel \(did not converge/);
     expect(result.verdict).not.toMatch(/is preferred over/);
   });
-  it("compareFits(fits) states no preference when a converged fit warns poor-fit, no-fringes or fringe-aliased, and names it", () => {
-    // The issue's case: a far-field fit of a near-field line far from the data (χ²/ν in the thousands).
-    for (const code of ["poor-fit", "no-fringes", "fringe-aliased"]) {
+  it("compareFits(fits) states no preference when a fit warns no-fringes or fringe-aliased, or the best-ranked fit warns poor-fit, and names it", () => {
+    // A fit that found no fringe (or an alias) failed to find its optimum: no preference.
+    for (const code of ["no-fringes", "fringe-aliased"]) {
       const bad = { ...far, warnings: [{ code, message: `the model does not describe these data (${code} test)` }] };
       const result = compareFits([bad, near], { profile });
       expect(result.preferred, code).toBeNull();
@@ -79,6 +79,14 @@ describe("compareFits", () => {
       expect(result.verdict).not.toMatch(/is preferred over|decisive/);
       expect(comparisonJson(result).preferred).toBeNull();
     }
+    // A poor fit of the model that ranks lower is what a comparison shows: the preference stands.
+    const poorFar = { ...far, warnings: [{ code: "poor-fit", message: "the model does not describe these data (χ²/ν = 4270)" }] };
+    expect(compareFits([poorFar, near], { profile }).preferred).toBe("two-slit-fresnel");
+    // A poor fit of the best-ranked model: no candidate describes the data, so no preference.
+    const poorNear = { ...near, warnings: [{ code: "poor-fit", message: "the model does not describe these data (χ²/ν = 3.1)" }] };
+    const none = compareFits([far, poorNear], { profile });
+    expect(none.preferred).toBeNull();
+    expect(none.unreliable.map((u) => u.label)).toEqual(["two-slit-fresnel"]);
     // Another warning (a parameter at its bound) is no failure: the preference stands.
     const atBound = { ...far, warnings: [{ code: "at-bound", message: "visibility is at its upper bound 1" }] };
     expect(compareFits([atBound, near], { profile }).preferred).toBe("two-slit-fresnel");

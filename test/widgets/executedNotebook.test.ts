@@ -90,7 +90,8 @@ run("nbclient-executed notebook with fringekit widgets", () => {
       await browser.page.evaluate(`(() => { const root = document.querySelector(".fk-root[data-fit-state]"); window.__states = [];
         new MutationObserver(() => window.__states.push(root.dataset.fitState)).observe(root, { attributes: true, attributeFilter: ["data-fit-state"] }); })()`);
       await browser.page.click("button[data-action=fit]");
-      await browser.page.waitForFunction(`window.__states.includes("running") && window.__states.at(-1) === "done"`, undefined, { timeout: 90_000 });
+      // A function, not a string: the page's Content-Security-Policy refuses eval of strings.
+      await browser.page.waitForFunction(() => { const states = (globalThis as unknown as { __states: string[] }).__states; return states.includes("running") && states.at(-1) === "done"; }, undefined, { timeout: 90_000 });
       expect(await browser.page.textContent("[data-region=result]")).toContain("converged");
       expect(external).toEqual([]);
     } finally {
