@@ -107,15 +107,16 @@ class ContentWriter {
     const stroke = item.stroke !== undefined && (item.strokeWidth ?? 1) > 0;
     const fill = item.fill !== undefined;
     if (!stroke && !fill) return;
-    const ops = ["q"];
+    // Coordinates, line width and dashes in tenths of a px (see pathOperators).
+    const ops = ["q .1 0 0 .1 0 0 cm"];
     const alpha = [fill ? item.fillOpacity ?? 1 : 1, stroke ? item.strokeOpacity ?? 1 : 1] as [number, number];
     if (alpha[0] < 1 || alpha[1] < 1) ops.push(`/${this.state(alpha)} gs`);
     if (fill) ops.push(`${rgb(item.fill!)} rg`);
     if (stroke) {
-      ops.push(`${rgb(item.stroke!)} RG ${n3(item.strokeWidth ?? 1)} w`);
+      ops.push(`${rgb(item.stroke!)} RG ${n3(10 * (item.strokeWidth ?? 1))} w`);
       if (item.cap === "round") ops.push("1 J");
       if (item.join === "round") ops.push("1 j");
-      if (item.dash?.length) ops.push(`[${item.dash.map(n3).join(" ")}] 0 d`);
+      if (item.dash?.length) ops.push(`[${item.dash.map((v) => n3(10 * v)).join(" ")}] 0 d`);
     }
     this.out.push(ops.join(" "), pathOperators(item.d), `${fill && stroke ? "B" : fill ? "f" : "S"} Q`);
   }
@@ -164,50 +165,91 @@ class ContentWriter {
 
 /**
  * PDF path operators for an SVG path of the scene's kind (M, L, H, V, Z, absolute or
- * relative; what PathBuilder writes). A zero-length segment stays one: with round caps it
- * paints a dot (ISO 32000-1 §8.5.3.2), the markers' drawing.
+ * relative; what PathBuilder writes), coordinates in tenths of a px as integers (the content
+ * stream scales by 0.1 around paths; scene coordinates carry 0.1 px). A zero-length segment
+ * stays one: with round caps it paints a dot (ISO 32000-1 §8.5.3.2), the markers' drawing.
  */
 export function pathOperators(d: string): string {
-  const out: string[] = [];
-  const tokens = d.match(/[MmLlHhVvZz]|[-+]?(?:\d+\.?\d*|\.\d+)(?:[eE][-+]?\d+)?/g) ?? [];
-  let cmd = "", x = 0, y = 0, sx = 0, sy = 0;
-  for (let i = 0; i < tokens.length; ) {
-    const tok = tokens[i]!;
-    if (/[A-Za-z]/.test(tok)) {
-      cmd = tok;
+  let out = "";
+  let cmd = 0, x = 0, y = 0, sx = 0, sy = 0;
+  let i = 0;
+  const len = d.length;
+  // Read by hand into integer tenths: the paths of a 4096-point figure hold ~50 000 numbers,
+  // and this runs once per process, mostly before the JIT has compiled it.
+  const number = (): number => {
+    let k = d.charCodeAt(i);
+    while (k === 32 || k === 44 || k === 10) k = d.charCodeAt(++i);
+    const start = i;
+    let sign = 1;
+    if (k === 45 || k === 43) {
+      if (k === 45) sign = -1;
+      k = d.charCodeAt(++i);
+    }
+    let whole = 0, digits = 0;
+    while (k >= 48 && k <= 57) {
+      whole = whole * 10 + (k - 48);
+      digits++;
+      k = d.charCodeAt(++i);
+    }
+    let tenths = whole * 10;
+    if (k === 46) {
+      k = d.charCodeAt(++i);
+      let place = 0;
+      while (k >= 48 && k <= 57) {
+        if (place === 0) tenths += k - 48;
+        else if (place === 1 && k >= 53) tenths += 1; // round half up at the hundredths
+        place++;
+        digits++;
+        k = d.charCodeAt(++i);
+      }
+    }
+    if (k === 101 || k === 69) {
+      const end = skipExponent(d, i);
+      const value = Math.round(Number(d.slice(start, end)) * 10);
+      i = end;
+      return value;
+    }
+    return digits ? sign * tenths : NaN;
+  };
+  while (i < len) {
+    const c = d.charCodeAt(i);
+    if (c === 32 || c === 44 || c === 10) { i++; continue; }
+    if ((c >= 65 && c <= 90) || (c >= 97 && c <= 122)) {
+      cmd = c;
       i++;
-      if (cmd === "Z" || cmd === "z") {
-        out.push("h");
+      if (c === 90 || c === 122) { // Z z
+        out += "h\n";
         x = sx; y = sy;
       }
       continue;
     }
-    const num = (k: number) => Number(tokens[i + k]);
-    switch (cmd) {
-      case "M": case "m": case "L": case "l": {
-        const rel = cmd === "m" || cmd === "l";
-        x = (rel ? x : 0) + num(0); y = (rel ? y : 0) + num(1);
-        i += 2;
-        if (cmd === "M" || cmd === "m") {
-          out.push(`${n(x)} ${n(y)} m`);
-          sx = x; sy = y;
-          cmd = cmd === "M" ? "L" : "l"; // further pairs are line-tos
-        } else out.push(`${n(x)} ${n(y)} l`);
-        break;
-      }
-      case "H": case "h":
-        x = (cmd === "h" ? x : 0) + num(0); i += 1;
-        out.push(`${n(x)} ${n(y)} l`);
-        break;
-      case "V": case "v":
-        y = (cmd === "v" ? y : 0) + num(0); i += 1;
-        out.push(`${n(x)} ${n(y)} l`);
-        break;
-      default:
-        i += 1; // a number without a command: skipped, as an SVG renderer stops drawing there
-    }
+    const rel = cmd >= 97;
+    if (cmd === 77 || cmd === 109 || cmd === 76 || cmd === 108) { // M m L l
+      const a = number(), b = number();
+      if (Number.isNaN(a) || Number.isNaN(b)) break; // malformed: stop, as an SVG renderer does
+      x = (rel ? x : 0) + a; y = (rel ? y : 0) + b;
+      if (cmd === 77 || cmd === 109) {
+        out += `${x} ${y} m\n`;
+        sx = x; sy = y;
+        cmd = cmd === 77 ? 76 : 108; // further pairs are line-tos
+      } else out += `${x} ${y} l\n`;
+    } else if (cmd === 72 || cmd === 104 || cmd === 86 || cmd === 118) { // H h V v
+      const a = number();
+      if (Number.isNaN(a)) break;
+      if (cmd === 72 || cmd === 104) x = (rel ? x : 0) + a;
+      else y = (rel ? y : 0) + a;
+      out += `${x} ${y} l\n`;
+    } else break; // a command the scene never writes (curves): stop there
   }
-  return out.join("\n");
+  return out;
+}
+
+/** Index just past the exponent that starts at `i` ("e-3"). */
+function skipExponent(d: string, i: number): number {
+  i++;
+  if (d[i] === "-" || d[i] === "+") i++;
+  while (i < d.length && d.charCodeAt(i) >= 48 && d.charCodeAt(i) <= 57) i++;
+  return i;
 }
 
 /** Embed `font` (its glyphs `used`) as a Type 0 font; returns the object number and the glyphs' indices in the subset. */

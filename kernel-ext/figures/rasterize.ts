@@ -2,8 +2,19 @@
  * PNG from the figure SVG with resvg (@resvg/resvg-js, its platform binary ships in the npm
  * package), at a chosen resolution, fonts from figureFonts(); the dpi is recorded in pHYs.
  */
+import { promisify } from "node:util";
+import { deflate } from "node:zlib";
 import { figureFonts } from "./fonts.js";
-import { setPngDpi } from "./pngDensity.js";
+import { crc32, setPngDpi } from "./pngDensity.js";
+
+const deflateAsync = promisify(deflate);
+
+/**
+ * zlib level of the image data. Figures are mostly white with few colours: level 3 with
+ * unfiltered rows is ~4× faster than resvg's own encoder at a similar size (bench/B7;
+ * 600 dpi fit figure: 12 ms, 240 KB against 50 ms, 250 KB), and runs off the main thread.
+ */
+const PNG_LEVEL = 3;
 
 /**
  * Rasterise `svg` (sized in mm) to PNG bytes at `dpi`: width = widthMm / 25.4 × dpi pixels.
@@ -20,5 +31,41 @@ export async function svgToPng(svg: string, widthMm: number, dpi: number): Promi
     shapeRendering: 2,
     textRendering: 1,
   });
-  return setPngDpi(new Uint8Array(image.asPng()), dpi);
+  return setPngDpi(await encodePng(image.pixels, image.width, image.height), dpi);
+}
+
+/**
+ * An 8-bit RGBA PNG (ISO/IEC 15948:2003) of `rgba` pixels (straight alpha, rows top to
+ * bottom), every row unfiltered, compressed on libuv's thread pool.
+ */
+export async function encodePng(rgba: Uint8Array, width: number, height: number): Promise<Uint8Array> {
+  const row = 4 * width;
+  if (rgba.length !== row * height) throw new RangeError(`encodePng: ${rgba.length} bytes for ${width} × ${height} RGBA pixels`);
+  const raw = new Uint8Array((row + 1) * height); // filter byte 0 (None) before each row
+  for (let y = 0; y < height; y++) raw.set(rgba.subarray(y * row, (y + 1) * row), y * (row + 1) + 1);
+  const data = await deflateAsync(raw, { level: PNG_LEVEL });
+  const header = new Uint8Array(13);
+  const view = new DataView(header.buffer);
+  view.setUint32(0, width);
+  view.setUint32(4, height);
+  header.set([8, 6, 0, 0, 0], 8); // 8 bits, RGBA, deflate, adaptive filtering, no interlace
+  const parts = [Uint8Array.of(0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a), chunk("IHDR", header), chunk("IDAT", data), chunk("IEND", new Uint8Array(0))];
+  const out = new Uint8Array(parts.reduce((s, p) => s + p.length, 0));
+  let at = 0;
+  for (const p of parts) {
+    out.set(p, at);
+    at += p.length;
+  }
+  return out;
+}
+
+/** A PNG chunk: length, type, data, CRC-32 of type and data. */
+function chunk(type: string, data: Uint8Array): Uint8Array {
+  const out = new Uint8Array(12 + data.length);
+  const view = new DataView(out.buffer);
+  view.setUint32(0, data.length);
+  for (let i = 0; i < 4; i++) out[4 + i] = type.charCodeAt(i);
+  out.set(data, 8);
+  view.setUint32(8 + data.length, crc32(out.subarray(4, 8 + data.length)));
+  return out;
 }
