@@ -9,6 +9,17 @@ import { crc32, setPngDpi } from "./pngDensity.js";
 
 const deflateAsync = promisify(deflate);
 
+type Resvg = typeof import("@resvg/resvg-js");
+let resvg: Resvg | undefined;
+
+/**
+ * Load resvg (its native binary: tens of milliseconds). saveFigure calls this first, so that
+ * svgToPng hands the drawing to resvg's thread at once and the PDF is written meanwhile.
+ */
+export async function loadRasterizer(): Promise<void> {
+  resvg ??= await import("@resvg/resvg-js");
+}
+
 /**
  * zlib level of the image data. Figures are mostly white with few colours: level 3 with
  * unfiltered rows is ~4× faster than resvg's own encoder at a similar size (bench/B7;
@@ -21,10 +32,10 @@ const PNG_LEVEL = 3;
  * @param widthMm physical width of the figure (mm)
  */
 export async function svgToPng(svg: string, widthMm: number, dpi: number): Promise<Uint8Array> {
-  const { renderAsync } = await import("@resvg/resvg-js");
+  if (!resvg) await loadRasterizer();
   const fonts = figureFonts();
   // renderAsync draws on a worker thread, so a PDF can be written meanwhile.
-  const image = await renderAsync(svg, {
+  const image = await resvg!.renderAsync(svg, {
     fitTo: { mode: "width", value: Math.round((widthMm / 25.4) * dpi) },
     background: "#ffffff",
     font: { fontFiles: [fonts.regular, fonts.italic], loadSystemFonts: false, defaultFontFamily: "Liberation Sans", sansSerifFamily: "Liberation Sans" },

@@ -8,6 +8,7 @@ import path from "node:path";
 import { InvalidArgumentError } from "../../src/errors.js";
 import type { FigureSpec } from "../../src/report/figures/figureSpec.js";
 import { FigureRenderer, exportFigure, type ExportedFigure, type FigureFormat } from "./exportFigure.js";
+import { loadRasterizer } from "./rasterize.js";
 
 /** Options of saveFigure. */
 export interface SaveFigureOptions {
@@ -34,9 +35,16 @@ export async function saveFigure(figure: FigureSpec, basePath: string, options: 
   const base = basePath.replace(/\.(svg|pdf|png)$/i, "");
   await mkdir(path.dirname(path.resolve(base)), { recursive: true });
   const renderer = await FigureRenderer.start();
+  // A rasteriser that fails to load fails the PNG alone (in svgToPng), as before.
+  if (formats.includes("png")) await loadRasterizer().catch(() => undefined);
   try {
-    // All formats at once: the PNG is drawn on a worker thread while the PDF is written.
-    return await Promise.all(formats.map((format) => exportFigure(figure, `${base}.${format}`, { format, dpi: options.dpi ?? 600 }, renderer)));
+    // All formats at once, the PNG first: resvg draws it on a worker thread while the PDF is
+    // written here (the PDF writer does not yield, so started first it would delay the PNG).
+    const started = new Map<FigureFormat, Promise<ExportedFigure>>();
+    for (const format of [...formats].sort((a, b) => Number(b === "png") - Number(a === "png"))) {
+      if (!started.has(format)) started.set(format, exportFigure(figure, `${base}.${format}`, { format, dpi: options.dpi ?? 600 }, renderer));
+    }
+    return await Promise.all(formats.map((format) => started.get(format)!));
   } finally {
     await renderer.close();
   }
