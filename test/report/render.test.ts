@@ -11,6 +11,7 @@ import { parseMarkup, textWidth } from "../../src/report/render/markup.js";
 import { PathBuilder, type SceneItem } from "../../src/report/render/scene.js";
 import { autoTicks, tickLabel } from "../../src/report/render/ticks.js";
 import { b1Profile, fitB1 } from "../../bench/B1.js";
+import { fitExample } from "./figureExamples.js";
 import { exampleFigures } from "./renderExamples.js";
 
 const PYTHON = "/usr/bin/python3";
@@ -64,6 +65,35 @@ describe("PathBuilder", () => {
     const d = new PathBuilder().move(10.04, 20.06).line(12.5, 20.06).line(12.5, 18).dot(0.55, -1).toString();
     // (0.55, −1) rounds to (0.6, −1): a move of (−11.9, −19) from (12.5, 18) (hand count).
     expect(d).toBe("M10 20.1h2.5v-2.1m-11.9-19h0");
+  });
+
+  it("writes negative and sub-unit steps without a leading zero and sums relative steps exactly", () => {
+    // 0.1 px steps 30 times from 0.05 (rounds to 0.1): ends at 3.1 px (hand count), each step "h.1".
+    const p = new PathBuilder().move(0.05, -0.04);
+    for (let i = 1; i <= 30; i++) p.line(0.05 + i * 0.1, -0.04);
+    p.line(-1.25, -0.55);
+    const d = p.toString();
+    expect(d.startsWith("M.1 0h.1h.1")).toBe(true);
+    // From (3.1, 0) to (−1.25, −0.55) → (−1.2 or −1.3, −0.6 or −0.5): Math.round rounds halves up, to (−1.2, −0.5).
+    expect(d.endsWith("h.1l-4.3-.5")).toBe(true);
+  });
+});
+
+/** Text lines of a scene with their baselines (px). */
+function textLines(items: SceneItem[]): { text: string; y: number; size: number }[] {
+  return items.flatMap((item) => (item.type === "group" ? textLines(item.items) : item.type === "text" ? [{ text: item.runs.map((r) => r.text).join(""), y: item.y, size: item.size }] : []));
+}
+
+describe("figureScene(figure) legend", () => {
+  it("figureScene(fit figure whose legend wraps to two rows) keeps the legend inside the figure", () => {
+    const { profile, result } = fitExample(); // has excluded points: three legend entries
+    const figure = fitFigure(profile, result, { dataLabel: "Å données µ±σ", modelLabel: "fit – λ/2" });
+    const scene = figureScene(figure);
+    const legend = textLines(scene.items).filter((t) => ["Å données µ±σ", "fit – λ/2", "excluded"].includes(t.text));
+    expect(legend.length).toBe(3);
+    // Two rows: two baselines. A text's top is about one font size above its baseline (common practice).
+    expect(new Set(legend.map((t) => t.y)).size).toBe(2);
+    for (const t of legend) expect(t.y - t.size).toBeGreaterThanOrEqual(0);
   });
 });
 

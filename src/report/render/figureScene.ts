@@ -297,9 +297,11 @@ function neededMargins(axes: Map<string, Axis>, margin: Loose, legend: Legend, c
       needL = Math.max(needL, runsWidth(first.label, a.tickPx) / 2 - (toPx(a, first.value) - Math.min(a.p0, a.p1)));
     }
   }
-  if (legend.items.length && legend.above) needT = Math.max(needT, legendHeight(legend, W - L - R, fontPx) + 2);
   if (colorbar) needR = Math.max(needR, colorbarWidth(colorbar, W - L - R, fontPx));
-  L = Math.max(L, needL + 2); B = Math.max(B, needB + 2); T = Number(margin.t) + needT; R = Number(margin.r) + Math.max(0, needR);
+  L = Math.max(L, needL + 2); B = Math.max(B, needB + 2); R = Number(margin.r) + Math.max(0, needR);
+  // The legend wraps at the final plot width (computed just above), as legendDrawing does.
+  if (legend.items.length && legend.above) needT = Math.max(needT, legendHeight(legend, W - L - R, fontPx) + 2);
+  T = Number(margin.t) + needT;
   void H;
   return { L, R, T, B };
 }
