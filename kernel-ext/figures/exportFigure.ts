@@ -1,8 +1,8 @@
 /**
  * Export of fringekit figure descriptions to SVG and PDF (vector) and PNG at a chosen
  * resolution, without a browser: the pure renderer in src/report/render draws the SVG (the
- * same code the widgets' export buttons run), resvg rasterises it, PDFKit writes the PDF
- * with the font embedded. Files are written atomically.
+ * same code the widgets' export buttons run), resvg rasterises it, pdfScene.ts writes the PDF
+ * with the font embedded as a subset. Files are written atomically.
  *
  * Example (kernel or Node):
  *   await exportFigure(fitFigure(profile, result), "fig1.pdf");

@@ -1,7 +1,7 @@
 /**
  * One call that writes a paper figure in several formats: `out/first-fit.svg`, `.pdf`, `.png`.
  * The folder is created when missing; each file is written atomically. No browser is needed:
- * the figure is drawn once (src/report/render) and written as SVG, PDF (PDFKit) and PNG (resvg).
+ * the figure is drawn once (src/report/render) and written as SVG, PDF (pdfScene.ts) and PNG (resvg).
  */
 import { mkdir } from "node:fs/promises";
 import path from "node:path";
