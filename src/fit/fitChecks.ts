@@ -7,6 +7,7 @@
 import type { Model } from "../physics/model.js";
 import { formatQuantity } from "../report/formatQuantity.js";
 import { detectFringes, type FringeDetection } from "./fringeDetection.js";
+import { hasInteriorGaps } from "./starts/rank.js";
 import type { PreparedFit } from "./preparedFit.js";
 import type { FitOptions, FitResult, FitWarning } from "./types.js";
 
@@ -63,7 +64,7 @@ export function addFitChecks(prep: PreparedFit, result: FitResult, options: FitO
   warnings.push(...defaultGeometryWarnings(prep.model, options));
   const period = fringePeriod(result);
   if (period !== undefined) {
-    const detection = detectFringes(prep.x, prep.y, Number.isFinite(period) ? period : undefined);
+    const detection = detectFringes(prep.x, fringeSeries(prep, result), Number.isFinite(period) ? period : undefined);
     if (detection) {
       result.goodness.fringes = detection;
       // A "fringe" spanning the data fewer than twice is indistinguishable from the envelope's
@@ -91,6 +92,29 @@ export function addFitChecks(prep: PreparedFit, result: FitResult, options: FitO
   // Data and geometry first: they explain what follows.
   result.warnings = [...warnings, ...result.warnings];
   return result;
+}
+
+/**
+ * The series the fringe test looks at: the data themselves, except on a line with masked points
+ * inside it (e.g. saturated peaks), where the holes recur at the fringe period and spread the
+ * envelope's power over the neighbouring frequencies, burying the fringe under a raised floor.
+ * There the test sees (y − f₀)/σ, with f₀ the fitted model with visibility 0: the envelope is
+ * removed and the noise is white with unit variance, as the periodogram test assumes (the
+ * standardised form of Scargle 1982's unevenly sampled periodogram). Models without a
+ * visibility parameter keep the data.
+ */
+function fringeSeries(prep: PreparedFit, result: FitResult): Float64Array {
+  const names = prep.plan.names;
+  const kV = names.indexOf("visibility");
+  if (kV < 0 || !hasInteriorGaps(prep)) return prep.y;
+  const params = Float64Array.from(names, (name) => result.parameters.find((p) => p.name === name)?.value ?? NaN);
+  params[kV] = 0;
+  if (!params.every(Number.isFinite)) return prep.y;
+  const f0 = new Float64Array(prep.x.length);
+  prep.model.evaluate(prep.x, params, f0);
+  const out = new Float64Array(prep.x.length);
+  for (let i = 0; i < out.length; i++) out[i] = (prep.y[i] - f0[i]) / prep.noise.sigma[i];
+  return out.every(Number.isFinite) ? out : prep.y;
 }
 
 /** Fewest fringe periods across the data that a fringe can be told from the envelope by. */
