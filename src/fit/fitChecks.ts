@@ -64,7 +64,7 @@ export function addFitChecks(prep: PreparedFit, result: FitResult, options: FitO
   warnings.push(...defaultGeometryWarnings(prep.model, options));
   const period = fringePeriod(result);
   if (period !== undefined) {
-    const detection = detectFringes(prep.x, fringeSeries(prep, result), Number.isFinite(period) ? period : undefined);
+    const detection = detectFringes(prep.x, fringeSeries(prep, result, period), Number.isFinite(period) ? period : undefined);
     if (detection) {
       result.goodness.fringes = detection;
       // A "fringe" spanning the data fewer than twice is indistinguishable from the envelope's
@@ -98,22 +98,27 @@ export function addFitChecks(prep: PreparedFit, result: FitResult, options: FitO
  * The series the fringe test looks at: the data themselves, except on a line with masked points
  * inside it (e.g. saturated peaks), where the holes recur at the fringe period and spread the
  * envelope's power over the neighbouring frequencies, burying the fringe under a raised floor.
- * There the test sees (y − f₀)/σ, with f₀ the fitted model with visibility 0: the envelope is
- * removed and the noise is white with unit variance, as the periodogram test assumes (the
- * standardised form of Scargle 1982's unevenly sampled periodogram). Models without a
- * visibility parameter keep the data.
+ * There the test sees (y − f₀)/σ, with f₀ the fitted curve averaged over one fringe period P
+ * (16 points across it; the mean of a cos fringe, or of an N-slit grating factor, over a period
+ * is its constant term, so f₀ is the fringe-free envelope for every far-field model): the
+ * envelope is removed and the noise is white with unit variance, as the periodogram test assumes
+ * (the standardised form of Scargle 1982's unevenly sampled periodogram).
  */
-function fringeSeries(prep: PreparedFit, result: FitResult): Float64Array {
+function fringeSeries(prep: PreparedFit, result: FitResult, period: number): Float64Array {
+  if (!hasInteriorGaps(prep) || !(period > 0) || !Number.isFinite(period)) return prep.y;
   const names = prep.plan.names;
-  const kV = names.indexOf("visibility");
-  if (kV < 0 || !hasInteriorGaps(prep)) return prep.y;
   const params = Float64Array.from(names, (name) => result.parameters.find((p) => p.name === name)?.value ?? NaN);
-  params[kV] = 0;
   if (!params.every(Number.isFinite)) return prep.y;
-  const f0 = new Float64Array(prep.x.length);
-  prep.model.evaluate(prep.x, params, f0);
-  const out = new Float64Array(prep.x.length);
-  for (let i = 0; i < out.length; i++) out[i] = (prep.y[i] - f0[i]) / prep.noise.sigma[i];
+  const n = prep.x.length, steps = 16;
+  const f0 = new Float64Array(n), shifted = new Float64Array(n), values = new Float64Array(n);
+  for (let j = 0; j < steps; j++) {
+    const offset = ((j + 0.5) / steps - 0.5) * period;
+    for (let i = 0; i < n; i++) shifted[i] = prep.x[i] + offset;
+    prep.model.evaluate(shifted, params, values);
+    for (let i = 0; i < n; i++) f0[i] += values[i] / steps;
+  }
+  const out = new Float64Array(n);
+  for (let i = 0; i < n; i++) out[i] = (prep.y[i] - f0[i]) / prep.noise.sigma[i];
   return out.every(Number.isFinite) ? out : prep.y;
 }
 

@@ -94,6 +94,29 @@ print(json.dumps({"lines": lines, "beam": {"x": x.tolist(), "y": beam.tolist(), 
     expect(beam.warnings.map((w) => w.code)).toContain("no-fringes");
   }, 60_000);
 
+  maybe("fitProfile(saturated three-slit line, masked, n-slit) finds separation and width and sees the fringe", () => {
+    const sim = python<Simulated & { clipped: number }>(`
+import numpy as np
+x = (np.arange(4096) - 2048) * 5.5e-6
+lam, L, d, a, N = 632.8e-9, 1.0, 0.4e-3, 0.09e-3, 3
+s = x / np.sqrt(x * x + L * L)
+phi = np.pi * d * s / lam
+with np.errstate(invalid="ignore", divide="ignore"):
+    grating = np.where(np.abs(np.sin(phi)) < 1e-12, 1.0, (np.sin(N * phi) / (N * np.sin(phi))) ** 2)
+y = np.minimum(np.random.default_rng(31).poisson(60.0 + 8000.0 * np.sinc(a * s / lam) ** 2 * grating), 4095)   # Born & Wolf §8.6.1, 12-bit
+print(json.dumps({"x": x.tolist(), "y": y.tolist(), "clipped": int((y == 4095).sum())}))
+`, {});
+    expect(sim.clipped).toBeGreaterThan(100);
+    const text = "position [mm],intensity (counts)\n" + sim.x.map((x, i) => `${(x * 1e3).toFixed(4)},${sim.y[i]}`).join("\n");
+    const fit = fitProfile(parseTable(text, { source: "three.csv" }).profile, getModel("n-slit"), { fix: { ...GEOMETRY, slits: 3 } });
+    for (const [name, truth] of [["separation", 0.4e-3], ["width", 0.09e-3]] as const) {
+      const p = fit.parameters.find((q) => q.name === name)!;
+      expect(Math.abs(p.value - truth), name).toBeLessThan(4 * p.uncertainty);
+    }
+    expect(fit.warnings.map((w) => w.code)).toEqual(["saturated-masked"]);
+    expect(fit.goodness.fringes!.significant).toBe(true);
+  }, 60_000);
+
   maybe("fitProfile(Gaussian beam without fringes, two-slit) warns no-fringes; a 0.8-visibility line does not", () => {
     const sim = python<{ none: Simulated; fringes: Simulated }>(TWO_SLIT_PY + `
 x = (np.arange(2048) - 1024) * 5.5e-6
