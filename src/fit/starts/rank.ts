@@ -76,7 +76,9 @@ function rescaleOnce(prep: PreparedFit, candidate: Record<string, number>, strid
   };
   const f = new Float64Array(n);
   const kVisibility = freeIndex("visibility"), kPhase = freeIndex("phase");
-  if (kScale >= 0 && kVisibility >= 0 && kPhase >= 0 && names[plan.free[kScale]] === "amplitude") {
+  // Only on gapped lines: elsewhere the heuristics' own linear fit on the resampled line already
+  // gives V and φ, and the refit would cost four model evaluations per candidate.
+  if (kScale >= 0 && kVisibility >= 0 && kPhase >= 0 && names[plan.free[kScale]] === "amplitude" && hasInteriorGaps(prep)) {
     refitFringeTerms(theta, { kScale, kOffset, kVisibility, kPhase }, plan.lower, plan.upper, evaluate, y, sigma, n);
     start.visibility = theta[kVisibility];
     start.phase = theta[kPhase];
