@@ -76,7 +76,7 @@ export class ComparisonWidget {
 
   /** Widget view plus text/plain and text/html (the comparison table and verdict). */
   [MIME_BUNDLE](): MimeBundle {
-    return { ...this.widget.viewBundle(), ...fallbackBundle("Model comparison", [this.comparison.verdict], comparisonReport(this.fits)) };
+    return { ...this.widget.viewBundle(), ...fallbackBundle("Model comparison", [this.comparison.verdict], comparisonReport(this.comparison, { fits: this.fits })) };
   }
 
   display(): void {

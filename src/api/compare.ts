@@ -71,7 +71,7 @@ export class Comparison<F extends FitResult = Fit> {
 
   /** The comparison table with the verdict and nested tests as notes. */
   report(options: ComparisonTableOptions = {}): TableReport {
-    return comparisonReport(this.result, { verdict: this.result.verdict, tests: this.result.tests, ...options });
+    return comparisonReport(this.result, { verdict: this.result.verdict, tests: this.result.tests, fits: this.fits.map((f) => ({ label: f.label, result: f.fit })), ...options });
   }
 
   /** Data with every model, and binned residuals per model: where each model misses (see modelDifferenceFigure). */

@@ -18,8 +18,8 @@ import type { FitTableOptions } from "../report/fitTable.js";
 import { formatParameter, type FormatOptions } from "../report/formatQuantity.js";
 import { encodeJson } from "../report/results/arrays.js";
 import { fitDocument, scanDocument, stringifyResults, type DocumentOptions, type ResultsDocument } from "../report/results/resultsDocument.js";
-import { replayResults, type ReplayOptions, type ReplayReport } from "../report/results/replay.js";
 import { fitReport, quantityReport, type TableReport } from "../report/tableReport.js";
+import { replayResults, type ReplayOptions, type ReplayReport } from "./replay.js";
 import { derivedQuantities, type DerivedOptions, type DerivedReport } from "../stats/derivedQuantities.js";
 import type { DerivedQuantity } from "../stats/quantity.js";
 

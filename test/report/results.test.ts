@@ -6,7 +6,7 @@ import { getModel } from "../../src/physics/registry.js";
 import type { Profile } from "../../src/profile.js";
 import { decodeFloat64, encodeArray } from "../../src/report/results/arrays.js";
 import { decodeBase64, encodeBase64 } from "../../src/report/results/base64.js";
-import { replayResults, type ReplayEngine } from "../../src/report/results/replay.js";
+import { replayResults, type ReplayEngine } from "../../src/api/replay.js";
 import {
   comparisonDocument, fitDocument, parseResults, RESULTS_FORMAT_VERSION, scanDocument, stringifyResults,
 } from "../../src/report/results/resultsDocument.js";
