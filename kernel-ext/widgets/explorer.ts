@@ -7,6 +7,7 @@ import { Fit } from "../../src/api/fit.js";
 import { InvalidArgumentError } from "../../src/errors.js";
 import { autoStartCandidates, supportsAutoStart } from "../../src/fit/autoStart.js";
 import { describeFit } from "../../src/fit/fitSource.js";
+import { fitJson } from "../../src/report/results/fitJson.js";
 import type { FitOptions, NoiseModelId } from "../../src/fit/types.js";
 import { getModel, listModels, type ModelOptions } from "../../src/physics/index.js";
 import type { Model } from "../../src/physics/model.js";
@@ -19,7 +20,6 @@ import { typedArraySerializer, type TypedArray } from "../widget/serializers.js"
 import { fitOptionsFromParams } from "../../widgets/shared/fitRequest.js";
 import { progressFraction } from "../../widgets/shared/state.js";
 import { explorerFallback } from "./fallback.js";
-import { fitSummary } from "./fitSummary.js";
 import { startFit, type RunningFit } from "./fitRunner.js";
 import { widgetIdentity } from "./identity.js";
 
@@ -179,7 +179,7 @@ export class Explorer {
       const params = { ...this.widget.get("params") };
       for (const p of result.parameters) params[p.name] = { ...params[p.name]!, value: p.value };
       this.widget.set({
-        result: fitSummary(result), fit_curve: result.model, params,
+        result: fitJson(result), fit_curve: result.model, params,
         fit_state: result.reason === "cancelled" ? "cancelled" : "done", fit_progress: 1,
         fit_message: result.reason === "cancelled" ? "fit cancelled; showing where it stopped" : result.message,
       });

@@ -5,6 +5,7 @@ import { fitProfile } from "../../src/fit/fitProfile.js";
 import { getModel, paramVector, pixelPositions, simulateProfile } from "../../src/physics/index.js";
 import { MIME_BUNDLE } from "../../kernel-ext/display.js";
 import { explorer } from "../../kernel-ext/widgets/explorer.js";
+import { fitJson } from "../../src/report/results/fitJson.js";
 import { installFakeKernel } from "./fakeKernel.js";
 
 // B1 of ../shared/bench/PROBLEMS.md, 1024 pixels of 22 µm (same field of view).
@@ -76,6 +77,8 @@ describe("explorer (kernel side)", () => {
     const updates = kernel.messages.filter((m) => m.msgType === "comm_msg" && m.content.data.method === "update").map((m) => m.content.data.state);
     expect(updates.some((s) => s.fit_state === "running")).toBe(true);
     expect(updates.some((s) => s.result && s.result.converged === true)).toBe(true);
+    // The widget carries the one JSON shape of a fit (as `fringekit fit --json` prints it).
+    expect(updates.find((s) => s.result)!.result).toEqual(JSON.parse(JSON.stringify(fitJson(result))));
     expect(ex.params.separation).toBe(result.parameters.find((p) => p.name === "separation")!.value);
   });
 

@@ -2,3 +2,4 @@
 export * from "./base64.js";
 export * from "./arrays.js";
 export * from "./resultsDocument.js";
+export * from "./fitJson.js";
