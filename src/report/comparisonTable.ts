@@ -5,7 +5,8 @@
  */
 import { InvalidArgumentError } from "../errors.js";
 import type { FitResult } from "../fit/types.js";
-import type { ComparisonResult, Criterion, ModelComparisonRow } from "../stats/comparisonTypes.js";
+import { comparisonRows } from "../stats/comparisonRows.js";
+import type { ComparisonResult, Criterion } from "../stats/comparisonTypes.js";
 import type { NestedTestResult } from "../stats/nested.js";
 import { pText } from "../stats/residualDiagnostics.js";
 import { DOUBTFUL_CODES, fixed, NOISE_WORDS } from "./fitTable.js";
@@ -29,25 +30,7 @@ export interface ComparisonTableOptions {
   notes?: string[];
 }
 
-/** Numbers of one comparison row (the comparison's own row type, without diagnostics); also used by figures and results files. */
-export type ComparisonRow = Pick<ModelComparisonRow, "label" | "modelId" | "converged" | "k" | "reducedChi2" | "logLikelihood" | "aic" | "deltaAic" | "weight" | "bic" | "deltaBic">;
 
-/** The table rows of a `compareFits` result, in its order (best first). Criteria dimensionless. */
-export function comparisonRows(comparison: ComparisonResult): ComparisonRow[] {
-  return comparison.rows.map((r) => ({
-    label: r.label,
-    modelId: r.modelId,
-    converged: r.converged,
-    k: r.k,
-    reducedChi2: r.reducedChi2,
-    logLikelihood: r.logLikelihood,
-    aic: r.aic,
-    deltaAic: r.deltaAic,
-    weight: r.weight,
-    bic: r.bic,
-    deltaBic: r.deltaBic,
-  }));
-}
 
 /**
  * Build the comparison table (one row per fit, best first) from a `compareFits` result, so the

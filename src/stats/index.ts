@@ -13,6 +13,7 @@ export * from "./residualTests.js";
 export * from "./residualDiagnostics.js";
 export * from "./comparisonTypes.js";
 export * from "./compareFits.js";
+export * from "./comparisonRows.js";
 export * from "./quantity.js";
 export * from "./fringeGeometry.js";
 export * from "./measuredExtrema.js";

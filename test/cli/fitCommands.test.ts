@@ -151,8 +151,8 @@ describe("fringekit compare FILE --models", () => {
     expect((await runInProcess(["compare", line, "--models", "two-slit,single-slit", "--json", "--accept-doubtful"])).code).toBe(0);
     const json = JSON.parse(stdout);
     expect(json.preferred).toBe("two-slit");
-    expect(Object.keys(json.ranking[0])).toEqual(expect.arrayContaining(["model", "aic", "bic", "deltaAic", "weight"]));
-    expect(json.ranking.map((r: { model: string }) => r.model)).toEqual(["two-slit", "single-slit"]);
+    expect(Object.keys(json.ranking[0])).toEqual(expect.arrayContaining(["modelId", "aic", "bic", "deltaAic", "weight", "residualsStructured"]));
+    expect(json.ranking.map((r: { modelId: string }) => r.modelId)).toEqual(["two-slit", "single-slit"]);
     expect(typeof json.verdict).toBe("string");
   });
 });

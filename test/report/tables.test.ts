@@ -5,7 +5,8 @@ import { join } from "node:path";
 import { describe, expect, it } from "vitest";
 import { escapeHtml, escapeLatex, escapeMarkdown } from "../../src/report/escape.js";
 import { comparisonReport, fitReport, quantityReport } from "../../src/report/tableReport.js";
-import { comparisonRows, comparisonTable, testNote, type LabelledFit } from "../../src/report/comparisonTable.js";
+import { comparisonTable, testNote, type LabelledFit } from "../../src/report/comparisonTable.js";
+import { comparisonRows } from "../../src/stats/comparisonRows.js";
 import { compareFits } from "../../src/stats/compareFits.js";
 import { HOSTILE, makeFitResult } from "./fixtures.js";
 

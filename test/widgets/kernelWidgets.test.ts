@@ -30,6 +30,11 @@ describe("kernel-side widgets", () => {
     expect(String(model.state.verdict)).toContain("two-slit, V free");
   });
 
+  it("the comparison widget's table rows are the one comparison row (as compare --json's ranking and the report table)", () => {
+    const table = state.state[ids.comparison]!.state.table as Record<string, unknown>[];
+    expect(Object.keys(table[0]!).sort()).toEqual(["aic", "aicc", "bic", "chi2", "converged", "deltaAic", "deltaAicc", "deltaBic", "k", "label", "logLikelihood", "modelId", "n", "reducedChi2", "residualsStructured", "weight"]);
+  });
+
   it("uncertainty(result, ...) profiles each parameter: Δ ≈ 0 at the best fit, intervals bracket it", () => {
     const model = state.state[ids.uncertainty]!;
     const params = model.state.parameters as { name: string; best: number; interval: [number, number] }[];
