@@ -7,6 +7,7 @@ import { Fit } from "../../src/api/fit.js";
 import { InvalidArgumentError } from "../../src/errors.js";
 import { autoStartCandidates, supportsAutoStart } from "../../src/fit/autoStart.js";
 import { describeFit } from "../../src/fit/fitSource.js";
+import { resolveFitOptions } from "../../src/fit/optionQuantities.js";
 import { fitJson } from "../../src/report/results/fitJson.js";
 import type { FitOptions, NoiseModelId } from "../../src/fit/types.js";
 import { getModel, listModels, type ModelOptions } from "../../src/physics/index.js";
@@ -53,14 +54,17 @@ export interface ExplorerOptions {
   model?: string | Model;
   /** Options for getModel when `model` is an id (e.g. { smallAngle: true }); kept when the user switches models. */
   modelOptions?: ModelOptions;
-  /** Starting slider values (SI) by name; others from the automatic start or the model defaults. */
-  start?: Record<string, number>;
   /**
-   * Held parameters, as in fitProfile: name → value (SI), or names held at their start value
-   * (in addition to the model's fixed-by-default ones).
+   * Starting slider values by name, as in fitProfile: SI numbers or text with units ("680 nm");
+   * others from the automatic start or the model defaults.
    */
-  fix?: Record<string, number> | string[];
-  /** Older spelling of `fix` as a list of names. */
+  start?: FitOptions["start"];
+  /**
+   * Held parameters, as in fitProfile: name → value (SI number or text with units), or names
+   * held at their start value (in addition to the model's fixed-by-default ones).
+   */
+  fix?: FitOptions["fix"];
+  /** @deprecated older spelling of `fix` as a list of names; use `fix`. */
   fixed?: string[];
   /** Noise model (default "auto"). */
   noise?: NoiseModelId | "auto";
@@ -109,10 +113,12 @@ export class Explorer {
     this.model = typeof options.model === "object" ? options.model : getModel(options.model ?? "two-slit", options.modelOptions ?? {});
     this.original = this.model;
     this.modelOptions = { ...(modelSource(this.model).options as ModelOptions) };
-    const fix = options.fix ?? [];
+    // The same option shape as fitProfile: quantities with units are read by the fitter's own resolver.
+    const resolved = resolveFitOptions(this.model, { start: options.start, fix: options.fix });
+    const fix = resolved.fix ?? [];
     const fixValues: Record<string, number> = Array.isArray(fix) ? {} : { ...fix };
     const fixNames = [...(Array.isArray(fix) ? fix : Object.keys(fix)), ...(options.fixed ?? [])];
-    const given = { ...(options.start ?? {}), ...fixValues };
+    const given = { ...(resolved.start ?? {}), ...fixValues };
     const params = paramsForModel(this.model);
     for (const name of [...Object.keys(given), ...fixNames]) {
       if (!params[name]) throw new InvalidArgumentError(name in given ? "start" : "fix", name, `a parameter of model ${this.model.id}: ${Object.keys(params).join(", ")}`);

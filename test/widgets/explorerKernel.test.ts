@@ -82,6 +82,17 @@ describe("explorer (kernel side)", () => {
     expect(ex.params.separation).toBe(result.parameters.find((p) => p.name === "separation")!.value);
   });
 
+  it("explorer(profile, { start, fix }) takes fitProfile's option shape: quantities with units as text", () => {
+    kernel = installFakeKernel();
+    const ex = explorer(b1Profile(), { start: { ...start, separation: "0.497 mm" }, fix: { wavelength: "632.8 nm", distance: "100 cm" } });
+    const params = ex.widget.get("params");
+    expect(params.separation!.value).toBeCloseTo(0.497e-3, 15); // 1 mm = 1e-3 m (SI)
+    expect(params.wavelength).toMatchObject({ fixed: true });
+    expect(params.wavelength!.value).toBeCloseTo(632.8e-9, 20);
+    expect(params.distance).toMatchObject({ value: 1, fixed: true });
+    expect(() => explorer(b1Profile(), { fix: { wavelength: "632.8 kg" } })).toThrow(/fix\.wavelength/);
+  });
+
   it("explorer masks the browser's masked ranges and window in the fit request", () => {
     kernel = installFakeKernel();
     const ex = explorer(b1Profile(), { start });
