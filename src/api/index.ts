@@ -3,4 +3,4 @@ export * from "./fit.js";
 export * from "./fitProfile.js";
 export * from "./compare.js";
 export * from "./replay.js";
-export { type PlannedGeometry } from "./farField.js";
+export { farFieldValidity, type PlannedGeometry } from "./farField.js";

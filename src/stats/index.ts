@@ -18,7 +18,8 @@ export * from "./quantity.js";
 export * from "./fringeGeometry.js";
 export * from "./measuredExtrema.js";
 export * from "./coherence.js";
-export * from "./farField.js";
+// farFieldValidity is offered by api/ (a planned geometry or a fit: one name for both).
+export { isFarFieldModel, type FarFieldValidity } from "./farField.js";
 export * from "./sourceSize.js";
 export * from "./localVisibility.js";
 export * from "./derivedQuantities.js";

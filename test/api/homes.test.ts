@@ -5,6 +5,8 @@ import { readdirSync, readFileSync, statSync } from "node:fs";
 import { dirname, join, relative, resolve } from "node:path";
 import { fileURLToPath } from "node:url";
 import { describe, expect, it } from "vitest";
+import * as advanced from "../../src/advanced.js";
+import * as api from "../../src/index.js";
 
 const ROOT = resolve(dirname(fileURLToPath(import.meta.url)), "../..");
 
@@ -61,5 +63,19 @@ describe("one home for each piece", () => {
 
   it("src/ imports nothing outside src/", () => {
     expect(crossings("src", ["kernel-ext", "widgets", "cli", "bench", "scripts", "test"])).toEqual([]);
+  });
+
+  it("one name per physical quantity: coherenceLength and farFieldValidity, the same function in both entries", () => {
+    for (const entry of [api, advanced] as Record<string, unknown>[]) {
+      expect(entry.coherenceLengthFromBandwidth).toBeUndefined();
+      expect(entry.farFieldCheck).toBeUndefined();
+    }
+    expect(advanced.farFieldValidity).toBe(api.farFieldValidity);
+    expect(advanced.coherenceLength).toBe(api.coherenceLength);
+    // λ²/Δλ = (632.8 nm)²/(1 nm) = 0.40043584 mm (hand-computed), from plain numbers or ± u alike.
+    expect(api.coherenceLength(632.8e-9, 1e-9).value).toBeCloseTo(4.0043584e-4, 12);
+    expect(api.coherenceLength({ value: 632.8e-9, uncertainty: 0 }, 1e-9)).toEqual(api.coherenceLength(632.8e-9, 1e-9));
+    // A planned geometry (a²/(λL) = (0.1 mm)²/(632.8 nm · 1 m) = 0.0158, below the 0.1 limit) through the advanced entry too.
+    expect(advanced.farFieldValidity({ width: 0.1e-3, separation: 0.5e-3, wavelength: 632.8e-9, distance: 1 }).fresnelNumber).toBeCloseTo(0.0158028, 6);
   });
 });
