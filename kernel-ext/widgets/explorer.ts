@@ -72,8 +72,12 @@ export interface ExplorerOptions {
   title?: string;
 }
 
-/** Detector models the browser can build by id alone (models needing data, e.g. a spectrum, are left out). */
-function browserModelIds(current: string): string[] {
+/**
+ * Detector models the browser can build by id alone (models needing data, e.g. a spectrum, are
+ * left out): the explorer's model menu, `current` first when it is not one of them.
+ * @param current id of the model shown
+ */
+export function browserModelIds(current: string): string[] {
   const ids = listModels().filter((m) => m.axis === "detector").map((m) => m.id).filter((id) => {
     try {
       getModel(id);

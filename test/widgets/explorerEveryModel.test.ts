@@ -1,8 +1,8 @@
 // The explorer works for every model the browser can build by id: it opens with exactly that
 // model's parameters and its Fit fits that model (the model shown is the model fitted).
 import { afterEach, describe, expect, it } from "vitest";
-import { getModel, listModels, paramVector, pixelPositions, simulateProfile } from "../../src/advanced.js";
-import { explorer } from "../../kernel-ext/widgets/explorer.js";
+import { getModel, paramVector, pixelPositions, simulateProfile } from "../../src/advanced.js";
+import { browserModelIds, explorer } from "../../kernel-ext/widgets/explorer.js";
 import { installFakeKernel } from "./fakeKernel.js";
 
 let kernel: ReturnType<typeof installFakeKernel> | null = null;
@@ -11,19 +11,12 @@ afterEach(() => {
   kernel = null;
 });
 
-/** Detector-axis models that build from their id alone (those needing data, e.g. a spectrum, cannot). */
-const ids = listModels().filter((m) => m.axis === "detector").map((m) => m.id).filter((id) => {
-  try {
-    getModel(id);
-    return true;
-  } catch {
-    return false;
-  }
-});
+/** Every model of the explorer's menu. */
+const ids = browserModelIds("two-slit");
 
-describe("explorer(profile, { model: id }) for every detector model", () => {
-  it("the registry offers several detector models (two-slit, n-slit, …)", () => {
-    expect(ids).toEqual(expect.arrayContaining(["two-slit", "n-slit"]));
+describe("explorer(profile, { model: id }) for every model of its menu", () => {
+  it("the menu offers the detector models (two-slit, n-slit, the near-field and broadband ones)", () => {
+    expect(ids).toEqual(expect.arrayContaining(["two-slit", "n-slit", "two-slit-fresnel", "two-slit-broadband-wavelength"]));
   });
   for (const id of ids) {
     it(`explorer(p, { model: "${id}" }) opens with ${id}'s parameters and .fit() fits ${id}`, async () => {
