@@ -11,6 +11,7 @@ import { InvalidArgumentError } from "../../src/errors.js";
 import type { FitResult } from "../../src/fit/types.js";
 import type { Model } from "../../src/physics/model.js";
 import type { Profile } from "../../src/profile.js";
+import { compareFits } from "../../src/stats/compareFits.js";
 import type { NestedTestResult } from "../../src/stats/nested.js";
 import type { LabelledFit } from "../../src/report/comparisonTable.js";
 import { coherenceScanFigure } from "../../src/report/figures/coherenceScanFigure.js";
@@ -62,7 +63,8 @@ export async function exportComparisonReport(profile: Profile, fits: readonly La
   return writeAll(
     base,
     comparisonFigure(profile, fits, options.figure),
-    comparisonReport(fits, { caption: options.caption, verdict: options.verdict, tests: options.tests }),
+    // Ranked by stats (the report only lays the numbers out).
+    comparisonReport(compareFits(fits.map((f) => ({ fit: f.result, label: f.label })), { profile }), { caption: options.caption, verdict: options.verdict, tests: options.tests, fits }),
     comparisonDocument(profile, records, options),
     options,
     profile,

@@ -3,7 +3,7 @@
  * package), at a chosen resolution, fonts from figureFonts(); the dpi is recorded in pHYs.
  */
 import { figureFonts } from "./fonts.js";
-import { setPngDpi } from "./pngDensity.js";
+import { setPngDpi } from "../../src/report/render/pngDensity.js";
 
 /**
  * Rasterise `svg` (sized in mm) to PNG bytes at `dpi`: width = widthMm / 25.4 × dpi pixels.

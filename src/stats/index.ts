@@ -13,11 +13,13 @@ export * from "./residualTests.js";
 export * from "./residualDiagnostics.js";
 export * from "./comparisonTypes.js";
 export * from "./compareFits.js";
+export * from "./comparisonRows.js";
 export * from "./quantity.js";
 export * from "./fringeGeometry.js";
 export * from "./measuredExtrema.js";
 export * from "./coherence.js";
-export * from "./farField.js";
+// farFieldValidity is offered by api/ (a planned geometry or a fit: one name for both).
+export { isFarFieldModel, type FarFieldValidity } from "./farField.js";
 export * from "./sourceSize.js";
 export * from "./localVisibility.js";
 export * from "./derivedQuantities.js";
