@@ -1,10 +1,5 @@
 // Statistics of fringekit: re-exports only.
-export * from "./gamma.js";
-export * from "./beta.js";
-export * from "./normal.js";
-export * from "./chiSquared.js";
-export * from "./fDistribution.js";
-export * from "./studentT.js";
+export * from "../math/index.js";
 export * from "./fingerprint.js";
 export * from "./criteria.js";
 export * from "./nested.js";

@@ -55,6 +55,14 @@ describe("one home for each piece", () => {
     expect(crossings("widgets/shared", ["kernel-ext", "widgets/src", "cli"])).toEqual([]);
   });
 
+  it("math/ (special functions) sits below everything: it imports only src/errors and itself; fit/ takes them from math/", () => {
+    const allowed = (target: string) => target.startsWith("src/math/") || target === "src/errors.js";
+    const out: string[] = [];
+    for (const file of tsFiles("src/math")) for (const target of importsOf(file)) if (!allowed(target)) out.push(`${relative(ROOT, file)} → ${target}`);
+    expect(out).toEqual([]);
+    expect(crossings("src/fit", ["src/stats/gamma.js", "src/stats/beta.js", "src/stats/normal.js", "src/stats/chiSquared.js", "src/stats/studentT.js", "src/stats/fDistribution.js"])).toEqual([]);
+  });
+
   it("report/ formats and draws: it neither fits nor compares fits", () => {
     // The fitter, the refit helpers, the bootstraps and the comparison engine live in fit/, stats/ and api/.
     const fitting = ["src/fit/fitProfile.js", "src/fit/refit.js", "src/fit/profileInterval.js", "src/fit/bootstrap.js", "src/stats/compareFits.js", "src/api"];

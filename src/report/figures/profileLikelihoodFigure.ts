@@ -5,7 +5,7 @@
  */
 import { InvalidArgumentError } from "../../errors.js";
 import type { ProfileCurve } from "../../fit/profileCurve.js";
-import { chiSquaredQuantile } from "../../stats/chiSquared.js";
+import { chiSquaredQuantile } from "../../math/chiSquared.js";
 import { formatQuantity } from "../formatQuantity.js";
 import { parameterLabel } from "../labels.js";
 import { choosePrefix, takesPrefix } from "../siPrefix.js";
