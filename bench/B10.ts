@@ -79,7 +79,7 @@ export async function main(): Promise<void> {
     const waves = Math.ceil(tasks / cores);
     const overhead = slurmSeconds / waves - meanTask;
     const perProfile = meanTask / (count / tasks);
-    console.log(`B10 sizing (measured under load): fitting ≈ ${(perProfile * 1000).toFixed(0)} ms per profile per CPU (task logs), ${((localCpu / count) * 1000).toFixed(0)} ms CPU per profile in the one-machine run (start-up included); per-task overhead ≈ ${overhead.toFixed(1)} s (wall per wave of ${cores} tasks minus its fitting)`);
+    console.log(`B10 sizing (load averages above): fitting ≈ ${(perProfile * 1000).toFixed(0)} ms per profile per CPU (task logs), ${((localCpu / count) * 1000).toFixed(0)} ms CPU per profile in the one-machine run (start-up included); per-task overhead ≈ ${overhead.toFixed(1)} s (wall per wave of ${cores} tasks minus its fitting)`);
     if (!same) console.log(`B10 merge: ${merge.stderr.trim()}`);
     console.log(`B10 slurm array ${tasks} tasks: ${(count / slurmSeconds).toFixed(1)} profiles/s, merged ${same ? "==" : "!="} local (one machine ${(count / localSeconds).toFixed(1)} profiles/s, ${count} profiles)`);
   } finally {

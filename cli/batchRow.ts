@@ -3,7 +3,7 @@
  * status, never throwing (a bad file is a row with status "error" and the one-line message);
  * and the rows as a CSV table that is safe to open in a spreadsheet.
  */
-import { DOUBTFUL_CODES, FringekitError } from "../src/advanced.js";
+import { DOUBTFUL_CODES, FringekitError, readFitJson } from "../src/advanced.js";
 import { fitFile } from "./commands/fit.js";
 import { fitJson, type FitJson } from "./fitJson.js";
 import { notConvergedText } from "./fitSettings.js";
@@ -65,22 +65,26 @@ function withPage(args: ParsedArgs, page: number): ParsedArgs {
  * @param rows batch rows in input order
  */
 export function batchCsv(rows: readonly BatchRow[]): string {
+  // Rows of part files written before the one JSON shape of a fit are read too (readFitJson).
+  const fits = rows.map((row) => (row.fit ? readFitJson(row.fit, row.file) : null));
   const names: string[] = [];
-  for (const row of rows) for (const name of Object.keys(row.fit?.params ?? {})) if (!names.includes(name)) names.push(name);
+  for (const fit of fits) for (const name of Object.keys(fit?.params ?? {})) if (!names.includes(name)) names.push(name);
   const paged = rows.some((r) => r.page !== undefined);
   const header = ["file", ...(paged ? ["page"] : []), "status", "message", "n", "reducedChi2", "aic", "bic", ...names.flatMap((n) => [n, `${n}_uncertainty`])];
   const lines = [header.map(textCell).join(",")];
-  for (const row of rows) {
-    const s = row.fit?.stats;
+  rows.forEach((row, i) => {
+    const fit = fits[i];
+    const s = fit?.statistics as Record<string, number> | undefined;
     const cells: string[] = [textCell(row.file), ...(paged ? [numberCell(row.page)] : []), textCell(row.status), textCell(row.message), numberCell(s?.n), numberCell(s?.reducedChi2), numberCell(s?.aic), numberCell(s?.bic)];
-    for (const name of names) cells.push(numberCell(row.fit?.params[name]?.value), numberCell(row.fit?.params[name]?.uncertainty));
+    for (const name of names) cells.push(numberCell(fit?.params[name]?.value), numberCell(fit?.params[name]?.uncertainty));
     lines.push(cells.join(","));
-  }
+  });
   return `${lines.join("\n")}\n`;
 }
 
+/** A number's cell; empty when missing or not finite (an uncertainty that could not be estimated). */
 function numberCell(value: number | null | undefined): string {
-  return value === undefined || value === null ? "" : String(value);
+  return value === undefined || value === null || !Number.isFinite(value) ? "" : String(value);
 }
 
 function textCell(text: string): string {

@@ -1,20 +1,14 @@
 /**
- * The JSON object `fringekit fit --json` prints: values in SI units; an uncertainty that could
- * not be estimated (Infinity) is written as null because JSON has no infinity.
+ * The JSON object `fringekit fit --json` prints: the one JSON shape of a fit (src/report/results/
+ * fitJson: parameters keyed by name, SI values, a number that is not finite written as
+ * {"nonFinite": "Infinity"}), with the data's warnings first among the warnings and where the
+ * data came from.
  */
-import type { FitResult, Provenance } from "../src/advanced.js";
+import { fitJson as fitJsonOf, type FitJson as OneFitJson, type FitResult, type Provenance } from "../src/advanced.js";
 import type { AssumedDefault } from "./fitSettings.js";
 
-/** The documented shape of `fringekit fit --json`. */
-export interface FitJson {
-  model: string;
-  converged: boolean;
-  reason: string;
-  params: Record<string, { value: number; uncertainty: number | null; unit: string; fixed: boolean }>;
-  stats: { n: number; dof: number; chi2: number; reducedChi2: number; logLikelihood: number; aic: number; aicc: number; bic: number };
-  warnings: { code: string; message: string; parameter?: string }[];
-  /** The goodness-of-fit test (fit/goodness): verdict, χ²/ν, p-value (null when not tested), thresholds, fringe detection. */
-  goodness: Record<string, unknown> | null;
+/** The documented shape of `fringekit fit --json`: the JSON of a fit plus `provenance`. */
+export interface FitJson extends OneFitJson {
   provenance: Provenance | null;
 }
 
@@ -26,17 +20,10 @@ export interface FitJson {
  * @param assumed    parameters held at model defaults the user did not give (see assumedDefaults)
  */
 export function fitJson(result: FitResult, provenance: Provenance | undefined, dataWarnings: readonly string[], assumed: readonly AssumedDefault[] = []): FitJson {
-  const params: FitJson["params"] = {};
-  for (const p of result.parameters) params[p.name] = { value: p.value, uncertainty: Number.isFinite(p.uncertainty) ? p.uncertainty : null, unit: p.unit, fixed: p.fixed };
-  const s = result.statistics;
+  const json = fitJsonOf(result);
   return {
-    model: result.modelId,
-    converged: result.converged,
-    reason: result.reason,
-    params,
-    stats: { n: s.n, dof: s.dof, chi2: s.chi2, reducedChi2: s.reducedChi2, logLikelihood: s.logLikelihood, aic: s.aic, aicc: s.aicc, bic: s.bic },
-    warnings: [...dataWarnings.map((message) => ({ code: "data", message })), ...assumed.map((a) => ({ code: a.code, message: a.message, parameter: a.parameter })), ...result.warnings.map((w) => ({ ...w }))],
-    goodness: result.goodness ? JSON.parse(JSON.stringify(result.goodness, (_key, value) => (typeof value === "number" && !Number.isFinite(value) ? null : value))) as Record<string, unknown> : null,
+    ...json,
+    warnings: [...dataWarnings.map((message) => ({ code: "data", message })), ...assumed.map((a) => ({ code: a.code, message: a.message, parameter: a.parameter })), ...json.warnings],
     provenance: provenance ?? null,
   };
 }

@@ -14,7 +14,7 @@ import { writeFileAtomicSync } from "../kernel-ext/figures/atomicWrite.js";
 import { dirname, join } from "node:path";
 import { fileURLToPath } from "node:url";
 import { encode } from "fast-png";
-import { setPngDpi } from "../kernel-ext/figures/pngDensity.js";
+import { setPngDpi } from "../src/report/render/pngDensity.js";
 import {
   coherenceDiscModel,
   createRandom,

@@ -8,6 +8,11 @@
 #   scripts/slurm-local.sh env      prints the export line again
 # The folder is $FRINGEKIT_SLURM_DIR (default: ${TMPDIR:-/tmp}/fringekit-slurm-UID). The daemons
 # run as root with a private munge socket; nothing outside that folder is written.
+# The daemons listen on 127.0.0.1 only: CommunicationParameters=NoCtldInAddrAny,NoInAddrAny makes
+# slurmctld and slurmd bind to the address the machine's host name resolves to instead of every
+# interface. When that name does not resolve to a loopback address (or FRINGEKIT_SLURM_NAMESPACE=1),
+# the daemons run in their own UTS namespace (unshare --uts) under the host name "localhost".
+# After the start, every TCP socket the daemons listen on is checked to be on 127.0.0.1.
 set -euo pipefail
 
 DIR="${FRINGEKIT_SLURM_DIR:-${TMPDIR:-/tmp}/fringekit-slurm-$(id -u)}"
@@ -29,6 +34,24 @@ stop_pid() { # name pidfile
   fi
 }
 
+loopback_name() { # whether the first IPv4 address of the name is a loopback address
+  local address
+  address="$(getent ahostsv4 "$1" 2>/dev/null | awk 'NR == 1 { print $1 }')"
+  case "$address" in 127.*) return 0 ;; *) return 1 ;; esac
+}
+
+check_loopback() { # every TCP socket slurmctld and slurmd listen on is on 127.0.0.1
+  command -v ss >/dev/null || { say "ss not found: cannot check the listening addresses (install iproute2)"; return 0; }
+  local pids sockets wide
+  pids="$(cat "$DIR/slurmctld.pid" "$DIR/slurmd.pid" 2>/dev/null | paste -sd'|')"
+  sockets="$(ss -Hltnp 2>/dev/null | grep -E "pid=($pids)," || true)"
+  wide="$(echo "$sockets" | awk 'NF > 0 && $4 !~ /^127\./')"
+  if [ -z "$pids" ] || [ "$(echo "$sockets" | grep -c pid=)" -lt 2 ]; then say "cannot see the daemons' listening sockets (ss -ltnp): $sockets"; return 1; fi
+  [ -z "$wide" ] && return 0
+  say "a daemon listens beyond 127.0.0.1: $wide"
+  return 1
+}
+
 start() {
   for tool in munged slurmctld slurmd sinfo; do
     command -v "$tool" >/dev/null || { say "$tool not found: install the Debian packages slurm-wlm and munge"; exit 1; }
@@ -40,8 +63,14 @@ start() {
   rm -rf "$DIR"
   mkdir -p "$DIR/state" "$DIR/spool" "$DIR/munge"
   chmod 700 "$DIR/munge"
-  local host cpus mem
+  local host cpus mem wrap=()
   host="$(hostname -s)"
+  if [ "${FRINGEKIT_SLURM_NAMESPACE:-0}" = 1 ] || ! loopback_name "$(hostname)"; then
+    # Own host name for the daemons only, one that always resolves to 127.0.0.1.
+    unshare --uts true 2>/dev/null || { say "the host name $(hostname) does not resolve to 127.0.0.1 and unshare --uts is not allowed here; add '127.0.0.1 $(hostname)' to /etc/hosts"; exit 1; }
+    host=localhost
+    wrap=(unshare --uts sh -c 'hostname localhost && exec "$@"' sh)
+  fi
   cpus="$(nproc)"
   # Modest memory: half of the machine, at most 8 GB (slurmd drains a node that has less than this).
   mem=$(awk '/MemTotal/ { m = int($2 / 1024 / 2); print (m > 8192 ? 8192 : m) }' /proc/meminfo)
@@ -57,6 +86,8 @@ ClusterName=fringekit-ci
 SlurmctldHost=$host(127.0.0.1)
 SlurmctldPort=$CTLD_PORT
 SlurmdPort=$SLURMD_PORT
+# Listen on the loopback address only (SlurmctldHost and NodeAddr above and below), not on every interface.
+CommunicationParameters=NoCtldInAddrAny,NoInAddrAny
 SlurmUser=root
 SlurmdUser=root
 AuthType=auth/munge
@@ -87,11 +118,14 @@ NodeName=$host NodeAddr=127.0.0.1 CPUs=$cpus RealMemory=$mem State=UNKNOWN
 PartitionName=local Nodes=$host Default=YES MaxTime=INFINITE State=UP
 CONF
   export SLURM_CONF="$CONF"
-  slurmctld -f "$CONF" -c
-  slurmd -f "$CONF"
+  "${wrap[@]}" slurmctld -f "$CONF" -c
+  "${wrap[@]}" slurmd -f "$CONF" -N "$host"
   for _ in $(seq 1 60); do
     state="$(sinfo -h -N -o '%T' 2>/dev/null | head -1 || true)"
-    case "$state" in idle|mixed|allocated) say "node $host up ($cpus CPUs, $mem MB) with $CONF"; echo "export SLURM_CONF=$CONF"; return 0 ;; esac
+    case "$state" in idle|mixed|allocated)
+      check_loopback || { stop; exit 1; }
+      say "node $host up ($cpus CPUs, $mem MB, listening on 127.0.0.1:$CTLD_PORT and :$SLURMD_PORT) with $CONF"; echo "export SLURM_CONF=$CONF"; return 0 ;;
+    esac
     sleep 1
   done
   say "the node did not come up (state: ${state:-none}); logs: $DIR/slurmctld.log $DIR/slurmd.log"

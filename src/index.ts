@@ -49,5 +49,5 @@ export type { FigureSpec } from "./report/figures/figureSpec.js";
 
 // Results files: everything needed to re-run and check a fit; replay says whether it reproduces.
 export { parseResults, stringifyResults, type ResultsDocument } from "./report/results/resultsDocument.js";
-export { replayResults, type ReplayReport } from "./report/results/replay.js";
+export { replayResults, type ReplayReport } from "./api/replay.js";
 export { parseQuantity } from "./units/parseQuantity.js";

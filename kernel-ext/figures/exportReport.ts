@@ -25,14 +25,15 @@ import { exportFigure, FigureRenderer, type FigureFormat } from "./exportFigure.
  * fringekit/figures only to save a figure then costs tens of milliseconds less.
  */
 async function reportParts() {
-  const [{ fitFigure }, { comparisonFigure }, { coherenceScanFigure }, results, tables] = await Promise.all([
+  const [{ fitFigure }, { comparisonFigure }, { coherenceScanFigure }, { compareFits }, results, tables] = await Promise.all([
     import("../../src/report/figures/fitFigure.js"),
     import("../../src/report/figures/comparisonFigure.js"),
     import("../../src/report/figures/coherenceScanFigure.js"),
+    import("../../src/stats/compareFits.js"),
     import("../../src/report/results/resultsDocument.js"),
     import("../../src/report/tableReport.js"),
   ]);
-  return { fitFigure, comparisonFigure, coherenceScanFigure, ...results, ...tables };
+  return { fitFigure, comparisonFigure, coherenceScanFigure, compareFits, ...results, ...tables };
 }
 
 /** Options of the one-call exports (figure formats, size, and what the results file records). */
@@ -72,12 +73,13 @@ export async function exportFitReport(profile: Profile, result: FitResult, base:
 
 /** Figure, table and results file of a comparison of fits of one profile. */
 export async function exportComparisonReport(profile: Profile, fits: readonly LabelledFit[], base: string, options: ExportReportOptions = {}): Promise<ExportedReport> {
-  const { comparisonFigure, comparisonReport, comparisonDocument } = await reportParts();
+  const { comparisonFigure, comparisonReport, comparisonDocument, compareFits } = await reportParts();
   const records = fits.map((f) => ({ label: f.label, result: f.result, fitOptions: options.fitOptions, modelOptions: options.modelOptions }));
   return writeAll(
     base,
     comparisonFigure(profile, fits, options.figure),
-    comparisonReport(fits, { caption: options.caption, verdict: options.verdict, tests: options.tests }),
+    // Ranked by stats (the report only lays the numbers out).
+    comparisonReport(compareFits(fits.map((f) => ({ fit: f.result, label: f.label })), { profile }), { caption: options.caption, verdict: options.verdict, tests: options.tests, fits }),
     comparisonDocument(profile, records, options),
     options,
     profile,

@@ -2,7 +2,7 @@
 export * from "./exportFigure.js";
 export * from "./saveFigure.js";
 export * from "./atomicWrite.js";
-export { setPngDpi } from "./pngDensity.js";
+export { setPngDpi } from "../../src/report/render/pngDensity.js";
 export * from "./figureBundle.js";
 export * from "./exportReport.js";
 // The builders of the figures fits and comparisons draw, so a script that only makes paper

@@ -7,7 +7,7 @@ import { createRequire } from "node:module";
 import { promisify } from "node:util";
 import * as zlib from "node:zlib";
 import { figureFonts } from "./fonts.js";
-import { crc32, setPngDpi } from "./pngDensity.js";
+import { crc32, setPngDpi } from "../../src/report/render/pngDensity.js";
 
 const deflateAsync = promisify(zlib.deflate);
 /** CRC-32 of the IDAT data: zlib's own where Node has it (20.15 and later), ~4 ms less for a 600 dpi figure. */

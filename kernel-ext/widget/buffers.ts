@@ -3,7 +3,7 @@
  * messaging protocol 2.1 describes: binary leaves are taken out of the JSON state and sent as
  * separate frames; `buffer_paths` lists where each one belongs (a list of keys and indices).
  */
-import { checkBufferPaths } from "../../widgets/src/bufferPaths.js";
+import { checkBufferPaths } from "../../widgets/shared/bufferPaths.js";
 
 /** A path into a state object: object keys and array indices. */
 export type BufferPath = (string | number)[];

@@ -8,6 +8,7 @@ import type { FitResult } from "../../src/fit/types.js";
 import type { Profile } from "../../src/profile.js";
 import { comparisonReport } from "../../src/report/tableReport.js";
 import { compareFits } from "../../src/stats/compareFits.js";
+import { comparisonRows } from "../../src/stats/comparisonRows.js";
 import type { ComparisonResult, CompareOptions } from "../../src/stats/comparisonTypes.js";
 import type { ComparisonTableRow } from "../../widgets/shared/state.js";
 import { display, MIME_BUNDLE, type MimeBundle } from "../display.js";
@@ -66,17 +67,14 @@ export class ComparisonWidget {
       x: profile.x, y: profile.y, y_unit: profile.yUnit,
       curves: { data: curves, shape: [ordered.length, n] },
       residuals: { data: residuals, shape: [ordered.length, n] },
-      table: rows.map((r) => ({
-        label: r.label, modelId: r.modelId, k: r.k, reducedChi2: r.reducedChi2, aic: r.aic, bic: r.bic,
-        deltaAic: r.deltaAic, weight: r.weight, converged: r.converged,
-      })),
+      table: comparisonRows(this.comparison),
       verdict: this.comparison.verdict,
     }, { serializers: { x: typedArraySerializer, y: typedArraySerializer, curves: ndArraySerializer, residuals: ndArraySerializer } });
   }
 
   /** Widget view plus text/plain and text/html (the comparison table and verdict). */
   [MIME_BUNDLE](): MimeBundle {
-    return { ...this.widget.viewBundle(), ...fallbackBundle("Model comparison", [this.comparison.verdict], comparisonReport(this.fits)) };
+    return { ...this.widget.viewBundle(), ...fallbackBundle("Model comparison", [this.comparison.verdict], comparisonReport(this.comparison, { fits: this.fits })) };
   }
 
   display(): void {

@@ -7,6 +7,8 @@ import { Fit } from "../../src/api/fit.js";
 import { InvalidArgumentError } from "../../src/errors.js";
 import { autoStartCandidates, supportsAutoStart } from "../../src/fit/autoStart.js";
 import { describeFit } from "../../src/fit/fitSource.js";
+import { resolveFitOptions } from "../../src/fit/optionQuantities.js";
+import { fitJson } from "../../src/report/results/fitJson.js";
 import type { FitOptions, NoiseModelId } from "../../src/fit/types.js";
 import { getModel, listModels, type ModelOptions } from "../../src/physics/index.js";
 import type { Model } from "../../src/physics/model.js";
@@ -19,7 +21,6 @@ import { typedArraySerializer, type TypedArray } from "../widget/serializers.js"
 import { fitOptionsFromParams } from "../../widgets/shared/fitRequest.js";
 import { progressFraction } from "../../widgets/shared/state.js";
 import { explorerFallback } from "./fallback.js";
-import { fitSummary } from "./fitSummary.js";
 import { startFit, type RunningFit } from "./fitRunner.js";
 import { widgetIdentity } from "./identity.js";
 
@@ -53,14 +54,17 @@ export interface ExplorerOptions {
   model?: string | Model;
   /** Options for getModel when `model` is an id (e.g. { smallAngle: true }); kept when the user switches models. */
   modelOptions?: ModelOptions;
-  /** Starting slider values (SI) by name; others from the automatic start or the model defaults. */
-  start?: Record<string, number>;
   /**
-   * Held parameters, as in fitProfile: name → value (SI), or names held at their start value
-   * (in addition to the model's fixed-by-default ones).
+   * Starting slider values by name, as in fitProfile: SI numbers or text with units ("680 nm");
+   * others from the automatic start or the model defaults.
    */
-  fix?: Record<string, number> | string[];
-  /** Older spelling of `fix` as a list of names. */
+  start?: FitOptions["start"];
+  /**
+   * Held parameters, as in fitProfile: name → value (SI number or text with units), or names
+   * held at their start value (in addition to the model's fixed-by-default ones).
+   */
+  fix?: FitOptions["fix"];
+  /** @deprecated older spelling of `fix` as a list of names; use `fix`. */
   fixed?: string[];
   /** Noise model (default "auto"). */
   noise?: NoiseModelId | "auto";
@@ -68,8 +72,12 @@ export interface ExplorerOptions {
   title?: string;
 }
 
-/** Detector models the browser can build by id alone (models needing data, e.g. a spectrum, are left out). */
-function browserModelIds(current: string): string[] {
+/**
+ * Detector models the browser can build by id alone (models needing data, e.g. a spectrum, are
+ * left out): the explorer's model menu, `current` first when it is not one of them.
+ * @param current id of the model shown
+ */
+export function browserModelIds(current: string): string[] {
   const ids = listModels().filter((m) => m.axis === "detector").map((m) => m.id).filter((id) => {
     try {
       getModel(id);
@@ -109,10 +117,12 @@ export class Explorer {
     this.model = typeof options.model === "object" ? options.model : getModel(options.model ?? "two-slit", options.modelOptions ?? {});
     this.original = this.model;
     this.modelOptions = { ...(modelSource(this.model).options as ModelOptions) };
-    const fix = options.fix ?? [];
+    // The same option shape as fitProfile: quantities with units are read by the fitter's own resolver.
+    const resolved = resolveFitOptions(this.model, { start: options.start, fix: options.fix });
+    const fix = resolved.fix ?? [];
     const fixValues: Record<string, number> = Array.isArray(fix) ? {} : { ...fix };
     const fixNames = [...(Array.isArray(fix) ? fix : Object.keys(fix)), ...(options.fixed ?? [])];
-    const given = { ...(options.start ?? {}), ...fixValues };
+    const given = { ...(resolved.start ?? {}), ...fixValues };
     const params = paramsForModel(this.model);
     for (const name of [...Object.keys(given), ...fixNames]) {
       if (!params[name]) throw new InvalidArgumentError(name in given ? "start" : "fix", name, `a parameter of model ${this.model.id}: ${Object.keys(params).join(", ")}`);
@@ -179,7 +189,7 @@ export class Explorer {
       const params = { ...this.widget.get("params") };
       for (const p of result.parameters) params[p.name] = { ...params[p.name]!, value: p.value };
       this.widget.set({
-        result: fitSummary(result), fit_curve: result.model, params,
+        result: fitJson(result), fit_curve: result.model, params,
         fit_state: result.reason === "cancelled" ? "cancelled" : "done", fit_progress: 1,
         fit_message: result.reason === "cancelled" ? "fit cancelled; showing where it stopped" : result.message,
       });

@@ -14,7 +14,7 @@ import { DataError, InvalidArgumentError } from "../../src/errors.js";
 import { escapeHtml } from "../../src/report/escape.js";
 import { createNotebookProse } from "./notebookMarkdown.js";
 import { writeFileAtomic } from "../figures/atomicWrite.js";
-import { MODULE_NAME } from "../../widgets/src/version.js";
+import { MODULE_NAME } from "../../widgets/shared/version.js";
 import { contentSecurityPolicy, jsonForScript, sanitizeOutputHtml } from "./pagePolicy.js";
 
 const STATE_MIME = "application/vnd.jupyter.widget-state+json";

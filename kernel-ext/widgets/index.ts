@@ -7,7 +7,6 @@ export { uncertainty, UncertaintyWidget } from "./uncertainty.js";
 export type { UncertaintyOptions } from "./uncertainty.js";
 export { coherenceScan, CoherenceScanWidget } from "./coherenceScan.js";
 export type { CoherenceScanOptions } from "./coherenceScan.js";
-export { fitSummary } from "./fitSummary.js";
 export { exportNotebookHtml, notebookHtml, rendererBundlePath } from "./exportHtml.js";
 export { widgetStateFromMessages } from "./widgetState.js";
 export type { WidgetStateDocument, CommMessage } from "./widgetState.js";

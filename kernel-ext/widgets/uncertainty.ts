@@ -8,8 +8,8 @@ import { profileInterval, type ProfileInterval } from "../../src/fit/profileInte
 import type { FitResult } from "../../src/fit/types.js";
 import type { Model } from "../../src/physics/model.js";
 import type { Profile } from "../../src/profile.js";
-import { profileCurve } from "../../src/report/figures/profileCurve.js";
-import type { ProfileCurve } from "../../src/report/figures/profileLikelihoodFigure.js";
+import { profileCurve } from "../../src/fit/profileCurve.js";
+import type { ProfileCurve } from "../../src/fit/profileCurve.js";
 import type { ProfiledParameter } from "../../widgets/shared/state.js";
 import { display, MIME_BUNDLE, type MimeBundle } from "../display.js";
 import { WidgetModel } from "../widget/model.js";

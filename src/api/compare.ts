@@ -9,8 +9,7 @@ import type { Profile } from "../profile.js";
 import type { ComparisonTableOptions } from "../report/comparisonTable.js";
 import type { FigureSpec } from "../report/figures/figureSpec.js";
 import { modelDifferenceFigure, type ModelDifferenceFigureOptions } from "../report/figures/modelDifferenceFigure.js";
-import { encodeJson } from "../report/results/arrays.js";
-import { comparisonDocument, stringifyResults, type DocumentOptions, type ResultsDocument } from "../report/results/resultsDocument.js";
+import { comparisonDocument, resultsJson, stringifyResults, type DocumentOptions, type ResultsDocument } from "../report/results/resultsDocument.js";
 import { comparisonReport, type TableReport } from "../report/tableReport.js";
 import { compareFits, comparisonJson } from "../stats/compareFits.js";
 import type { CompareOptions, ComparisonJson, ComparisonResult, ModelComparisonRow } from "../stats/comparisonTypes.js";
@@ -71,7 +70,7 @@ export class Comparison<F extends FitResult = Fit> {
 
   /** The comparison table with the verdict and nested tests as notes. */
   report(options: ComparisonTableOptions = {}): TableReport {
-    return comparisonReport(this.result, { verdict: this.result.verdict, tests: this.result.tests, ...options });
+    return comparisonReport(this.result, { verdict: this.result.verdict, tests: this.result.tests, fits: this.fits.map((f) => ({ label: f.label, result: f.fit })), ...options });
   }
 
   /** Data with every model, and binned residuals per model: where each model misses (see modelDifferenceFigure). */
@@ -96,7 +95,7 @@ export class Comparison<F extends FitResult = Fit> {
 
   /** JSON.stringify(comparison) gives the results document. */
   toJSON(): unknown {
-    return encodeJson(this.document());
+    return resultsJson(this.document());
   }
 }
 

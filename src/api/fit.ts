@@ -16,10 +16,9 @@ import type { FigureSpec } from "../report/figures/figureSpec.js";
 import { fitFigure, type FitFigureOptions } from "../report/figures/fitFigure.js";
 import type { FitTableOptions } from "../report/fitTable.js";
 import { formatParameter, type FormatOptions } from "../report/formatQuantity.js";
-import { encodeJson } from "../report/results/arrays.js";
-import { fitDocument, scanDocument, stringifyResults, type DocumentOptions, type ResultsDocument } from "../report/results/resultsDocument.js";
-import { replayResults, type ReplayOptions, type ReplayReport } from "../report/results/replay.js";
+import { fitDocument, resultsJson, scanDocument, stringifyResults, type DocumentOptions, type ResultsDocument } from "../report/results/resultsDocument.js";
 import { fitReport, quantityReport, type TableReport } from "../report/tableReport.js";
+import { replayResults, type ReplayOptions, type ReplayReport } from "./replay.js";
 import { derivedQuantities, type DerivedOptions, type DerivedReport } from "../stats/derivedQuantities.js";
 import type { DerivedQuantity } from "../stats/quantity.js";
 
@@ -167,9 +166,9 @@ export class Fit implements FitResult {
     return replayResults(this.document(), this.profile, undefined, options);
   }
 
-  /** JSON.stringify(fit) gives the results document (typed arrays as base64, exact numbers). */
+  /** JSON.stringify(fit) gives the results document (each fit in the one JSON shape of a fit, see fitJson). */
   toJSON(): unknown {
-    return encodeJson(this.document());
+    return resultsJson(this.document());
   }
 }
 

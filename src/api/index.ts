@@ -2,4 +2,5 @@
 export * from "./fit.js";
 export * from "./fitProfile.js";
 export * from "./compare.js";
-export { type PlannedGeometry } from "./farField.js";
+export * from "./replay.js";
+export { farFieldValidity, type PlannedGeometry } from "./farField.js";

@@ -7,6 +7,7 @@
 import type { Model } from "../physics/model.js";
 import { formatQuantity } from "../report/formatQuantity.js";
 import { detectFringes, type FringeDetection } from "./fringeDetection.js";
+import { hasInteriorGaps } from "./starts/rank.js";
 import type { PreparedFit } from "./preparedFit.js";
 import type { FitOptions, FitResult, FitWarning } from "./types.js";
 
@@ -63,7 +64,7 @@ export function addFitChecks(prep: PreparedFit, result: FitResult, options: FitO
   warnings.push(...defaultGeometryWarnings(prep.model, options));
   const period = fringePeriod(result);
   if (period !== undefined) {
-    const detection = detectFringes(prep.x, prep.y, Number.isFinite(period) ? period : undefined);
+    const detection = detectFringes(prep.x, fringeSeries(prep, result, period), Number.isFinite(period) ? period : undefined);
     if (detection) {
       result.goodness.fringes = detection;
       // A "fringe" spanning the data fewer than twice is indistinguishable from the envelope's
@@ -91,6 +92,34 @@ export function addFitChecks(prep: PreparedFit, result: FitResult, options: FitO
   // Data and geometry first: they explain what follows.
   result.warnings = [...warnings, ...result.warnings];
   return result;
+}
+
+/**
+ * The series the fringe test looks at: the data themselves, except on a line with masked points
+ * inside it (e.g. saturated peaks), where the holes recur at the fringe period and spread the
+ * envelope's power over the neighbouring frequencies, burying the fringe under a raised floor.
+ * There the test sees (y − f₀)/σ, with f₀ the fitted curve averaged over one fringe period P
+ * (16 points across it; the mean of a cos fringe, or of an N-slit grating factor, over a period
+ * is its constant term, so f₀ is the fringe-free envelope for every far-field model): the
+ * envelope is removed and the noise is white with unit variance, as the periodogram test assumes
+ * (the standardised form of Scargle 1982's unevenly sampled periodogram).
+ */
+function fringeSeries(prep: PreparedFit, result: FitResult, period: number): Float64Array {
+  if (!hasInteriorGaps(prep) || !(period > 0) || !Number.isFinite(period)) return prep.y;
+  const names = prep.plan.names;
+  const params = Float64Array.from(names, (name) => result.parameters.find((p) => p.name === name)?.value ?? NaN);
+  if (!params.every(Number.isFinite)) return prep.y;
+  const n = prep.x.length, steps = 16;
+  const f0 = new Float64Array(n), shifted = new Float64Array(n), values = new Float64Array(n);
+  for (let j = 0; j < steps; j++) {
+    const offset = ((j + 0.5) / steps - 0.5) * period;
+    for (let i = 0; i < n; i++) shifted[i] = prep.x[i] + offset;
+    prep.model.evaluate(shifted, params, values);
+    for (let i = 0; i < n; i++) f0[i] += values[i] / steps;
+  }
+  const out = new Float64Array(n);
+  for (let i = 0; i < n; i++) out[i] = (prep.y[i] - f0[i]) / prep.noise.sigma[i];
+  return out.every(Number.isFinite) ? out : prep.y;
 }
 
 /** Fewest fringe periods across the data that a fringe can be told from the envelope by. */

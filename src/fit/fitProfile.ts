@@ -90,7 +90,7 @@ function withStarts(prep: PreparedFit, search: SearchResult, warnings: FitWarnin
 /**
  * Fits from each candidate start and keeps the converged outcome with the lowest objective.
  * When the noise scale is known (Poisson, or σ absolute), a converged fit whose objective is
- * within 5 standard deviations of its expectation (dof ± 5√(2·dof), χ² statistics) ends the
+ * within 3 standard deviations of its expectation (dof + 3√(2·dof), χ² statistics) ends the
  * search early: a wrong fringe order or phase branch leaves a far larger objective.
  * (No confirmation by a second start: for refits from a known optimum, e.g. bootstrap.)
  */

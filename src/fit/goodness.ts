@@ -13,7 +13,7 @@
  * The floor 1.5 means the misfit variance is at least half the noise variance: beyond it the
  * residual structure is as large as the noise itself.
  */
-import { chiSquaredCdf, chiSquaredSurvival } from "../stats/chiSquared.js";
+import { chiSquaredCdf, chiSquaredSurvival } from "../math/chiSquared.js";
 import type { FringeDetection } from "./fringeDetection.js";
 
 /** Significance level of the χ² test (two one-sided tails, each at this level). */

@@ -11,6 +11,7 @@ export * from "./fitSource.js";
 export * from "./refit.js";
 export * from "./autoStart.js";
 export * from "./profileInterval.js";
+export * from "./profileCurve.js";
 export * from "./propagate.js";
 export * from "./bootstrap.js";
 export * from "./fitJoint.js";

@@ -11,7 +11,7 @@
  */
 import { InvalidArgumentError } from "../errors.js";
 import type { Profile } from "../profile.js";
-import { lnGamma } from "../stats/gamma.js";
+import { lnGamma } from "../math/gamma.js";
 import type { NoiseModelId } from "./types.js";
 
 /** Noise settings resolved for one profile (used points only). */

@@ -7,7 +7,7 @@
 import { InvalidArgumentError } from "../errors.js";
 import type { Model } from "../physics/model.js";
 import type { Profile } from "../profile.js";
-import { normalQuantile } from "../stats/normal.js";
+import { normalQuantile } from "../math/normal.js";
 import { bestOf, prepareFit } from "./fitProfile.js";
 import { checkRefittable, objectiveScale, optionsFromResult } from "./refit.js";
 import type { FitOptions, FitResult, FitWarning } from "./types.js";

@@ -5,7 +5,7 @@
  */
 import { InvalidArgumentError } from "../errors.js";
 import { createRandom } from "../random.js";
-import { normalQuantile } from "../stats/normal.js";
+import { normalQuantile } from "../math/normal.js";
 import { svdJacobi } from "./linalg.js";
 import type { FitResult } from "./types.js";
 

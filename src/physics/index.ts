@@ -12,7 +12,13 @@ export * from "./broadbandWavelength.js";
 export * from "./nearField.js";
 export * from "./coherence.js";
 export * from "./sourceModel.js";
-export * from "./formulas.js";
+// One name per quantity: the coherence length and the far-field check are offered as
+// coherenceLength (stats) and farFieldValidity (api), which take plain numbers too; the
+// number-only building blocks below them stay inside the library.
+export {
+  SPEED_OF_LIGHT, fringeSpacing, maximumAngle, minimumAngle, maximumPosition, minimumPosition, missingOrders,
+  coherenceTimeFromBandwidth, fresnelNumber, type FarFieldCheck,
+} from "./formulas.js";
 export * from "./fresnelIntegrals.js";
 export * from "./bessel.js";
 export * from "./simulate.js";

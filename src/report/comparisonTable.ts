@@ -5,8 +5,8 @@
  */
 import { InvalidArgumentError } from "../errors.js";
 import type { FitResult } from "../fit/types.js";
-import { compareFits } from "../stats/compareFits.js";
-import type { ComparisonResult, Criterion, ModelComparisonRow } from "../stats/comparisonTypes.js";
+import { comparisonRows } from "../stats/comparisonRows.js";
+import type { ComparisonResult, Criterion } from "../stats/comparisonTypes.js";
 import type { NestedTestResult } from "../stats/nested.js";
 import { pText } from "../stats/residualDiagnostics.js";
 import { DOUBTFUL_CODES, fixed, NOISE_WORDS } from "./fitTable.js";
@@ -23,63 +23,29 @@ export interface ComparisonTableOptions {
   caption?: string;
   /** A verdict in plain words (e.g. compareFits(...).verdict), printed as a note. */
   verdict?: string;
-  /** The fits by label, for the goodness-of-fit column when the table is built from a compareFits result. */
+  /** The fits by label, for the goodness-of-fit column and the notes on doubtful fits. */
   fits?: readonly LabelledFit[];
   /** Nested-model tests (compareFits(...).tests), one note each with the statistics and p-values. */
   tests?: readonly NestedTestResult[];
   notes?: string[];
 }
 
-/** Numbers of one comparison row (the comparison's own row type, without diagnostics); also used by figures and results files. */
-export type ComparisonRow = Pick<ModelComparisonRow, "label" | "modelId" | "converged" | "k" | "reducedChi2" | "logLikelihood" | "aic" | "deltaAic" | "weight" | "bic" | "deltaBic">;
+
 
 /**
- * AIC/BIC ranking of fits to the same data, best first: the rows of stats' `compareFits`
- * (criteria recomputed from ln L, k and n; fits that did not converge get Δ = ∞, weight 0
- * and go last), so the table and the verdict rank alike.
- * Refuses fits with different point counts or noise models: their likelihoods are not comparable.
+ * Build the comparison table (one row per fit, best first) from a `compareFits` result, so the
+ * table shows exactly the ranking its verdict speaks of. Ranking happens in stats/compareFits
+ * (or compare() in api/); this only lays the numbers out.
+ * @param comparison the ranking (criteria dimensionless)
+ * @param options    caption, verdict, nested tests, notes, and the fits by label for the goodness-of-fit column
  */
-export function rankFits(fits: readonly LabelledFit[]): ComparisonRow[] {
-  if (!Array.isArray(fits) || fits.length === 0) throw new InvalidArgumentError("fits", fits, "a non-empty list of {label, result}");
-  const first = fits[0].result;
-  for (const f of fits) {
-    if (f.result.statistics.n !== first.statistics.n || f.result.noise !== first.noise) {
-      throw new InvalidArgumentError(
-        "fits",
-        f.label,
-        `every fit must use the same data and noise model (first: n = ${first.statistics.n}, ${first.noise}; this: n = ${f.result.statistics.n}, ${f.result.noise})`,
-      );
-    }
+export function comparisonTable(comparison: ComparisonResult, options: ComparisonTableOptions = {}): ReportTable {
+  if (!comparison || typeof comparison !== "object" || !Array.isArray((comparison as ComparisonResult).rows) || comparison.rows.length === 0) {
+    throw new InvalidArgumentError("comparison", Array.isArray(comparison) ? "a list of fits" : comparison, "a compareFits(...) result (rank a list of fits with compareFits or compare first)");
   }
-  return comparisonRows(compareFits(fits.map((f) => ({ fit: f.result, label: f.label }))));
-}
-
-/** The table rows of a `compareFits` result, in its order (best first). Criteria dimensionless. */
-export function comparisonRows(comparison: ComparisonResult): ComparisonRow[] {
-  return comparison.rows.map((r) => ({
-    label: r.label,
-    modelId: r.modelId,
-    converged: r.converged,
-    k: r.k,
-    reducedChi2: r.reducedChi2,
-    logLikelihood: r.logLikelihood,
-    aic: r.aic,
-    deltaAic: r.deltaAic,
-    weight: r.weight,
-    bic: r.bic,
-    deltaBic: r.deltaBic,
-  }));
-}
-
-/**
- * Build the comparison table (one row per fit, best first) from labelled fits or from a
- * `compareFits` result (then the table shows exactly the ranking its verdict speaks of).
- */
-export function comparisonTable(fits: readonly LabelledFit[] | ComparisonResult, options: ComparisonTableOptions = {}): ReportTable {
-  const comparison = Array.isArray(fits) ? undefined : (fits as ComparisonResult);
-  const ranking = comparison ? comparisonRows(comparison) : rankFits(fits as readonly LabelledFit[]);
-  const criterion = comparison?.criterion ?? "aic";
-  const byLabel = new Map((comparison ? options.fits ?? [] : (fits as readonly LabelledFit[])).map((f) => [f.label, f.result]));
+  const ranking = comparisonRows(comparison);
+  const criterion = comparison.criterion;
+  const byLabel = new Map((options.fits ?? []).map((f) => [f.label, f.result]));
   const fitWord = (label: string): string => {
     const g = byLabel.get(label)?.goodness;
     if (!g) return "–";
@@ -99,8 +65,8 @@ export function comparisonTable(fits: readonly LabelledFit[] | ComparisonResult,
       fixed(r.deltaBic, 1),
     ],
   }));
-  const n = comparison ? comparison.rows[0].n : (fits as readonly LabelledFit[])[0].result.statistics.n;
-  const noise = comparison ? comparison.noise : (fits as readonly LabelledFit[])[0].result.noise;
+  const n = comparison.rows[0].n;
+  const noise = comparison.noise;
   const name = CRITERION_NAMES[criterion];
   const notes = [`${ranking.length} fits of the same ${n} points, noise model ${NOISE_WORDS[noise] ?? noise}; best ${name} first.`];
   if (ranking.some((r) => !r.converged)) notes.push("Fits that did not converge are listed last with weight 0.");

@@ -4,7 +4,7 @@
  */
 import type { FitResult } from "../fit/types.js";
 import type { ComparisonResult } from "../stats/comparisonTypes.js";
-import { comparisonTable, type ComparisonTableOptions, type LabelledFit } from "./comparisonTable.js";
+import { comparisonTable, type ComparisonTableOptions } from "./comparisonTable.js";
 import { fitTable, type FitTableOptions } from "./fitTable.js";
 import { quantityTable, type QuantityRow, type QuantityTableOptions } from "./quantityTable.js";
 import { tableToHtml, tableToLatex, tableToLatexDocument, tableToMarkdown, type ReportTable } from "./table.js";
@@ -50,9 +50,12 @@ export function fitReport(result: FitResult, options: FitTableOptions = {}): Tab
   return new TableReport(fitTable(result, options));
 }
 
-/** The comparison report of several fits of the same data, or of a compareFits result (see comparisonTable). */
-export function comparisonReport(fits: readonly LabelledFit[] | ComparisonResult, options: ComparisonTableOptions = {}): TableReport {
-  return new TableReport(comparisonTable(fits, options));
+/**
+ * The comparison report of a compareFits result (see comparisonTable); `compare(fits).report()`
+ * is the one-line form.
+ */
+export function comparisonReport(comparison: ComparisonResult, options: ComparisonTableOptions = {}): TableReport {
+  return new TableReport(comparisonTable(comparison, options));
 }
 
 /** The report of derived quantities, e.g. derivedQuantities(fit).quantities from stats. */

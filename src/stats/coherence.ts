@@ -26,8 +26,14 @@ export function degreeOfCoherence(visibility: Measured, intensityRatio: Measured
   return { name: "degreeOfCoherence", value, uncertainty, unit: "1", note: value > 1 ? "above 1: visibility or intensity ratio inconsistent" : "|γ12| from V and I1/I2" };
 }
 
-/** Coherence length l_c = λ²/Δλ (m) from the centre wavelength λ (m) and bandwidth Δλ (m, FWHM), each ± u. */
-export function coherenceLength(wavelength: Measured, bandwidth: Measured): DerivedQuantity {
+/**
+ * Coherence length l_c = λ²/Δλ (m; the plain convention, quote it with the number) from the
+ * centre wavelength λ (m) and bandwidth Δλ (m, FWHM), each ± u or a plain number (taken as exact).
+ * @example coherenceLength(632.8e-9, 1e-9).value // 4.004e-4 m
+ */
+export function coherenceLength(wavelengthIn: Measured | number, bandwidthIn: Measured | number): DerivedQuantity {
+  const wavelength = typeof wavelengthIn === "number" ? { value: wavelengthIn, uncertainty: 0 } : wavelengthIn;
+  const bandwidth = typeof bandwidthIn === "number" ? { value: bandwidthIn, uncertainty: 0 } : bandwidthIn;
   if (!(wavelength.value > 0)) throw new InvalidArgumentError("wavelength", wavelength.value, "a positive length in m");
   if (!(bandwidth.value > 0)) throw new InvalidArgumentError("bandwidth", bandwidth.value, "a positive FWHM in m");
   const value = wavelength.value ** 2 / bandwidth.value;

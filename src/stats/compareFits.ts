@@ -5,6 +5,7 @@
 import { InvalidArgumentError } from "../errors.js";
 import type { FitResult } from "../fit/types.js";
 import type { Profile } from "../profile.js";
+import { comparisonRows } from "./comparisonRows.js";
 import type { CompareOptions, ComparisonEntry, ComparisonJson, ComparisonResult, Criterion, LabelledEntry, ModelComparisonRow, UnreliableFit } from "./comparisonTypes.js";
 import { akaikeWeights, fitCriteria } from "./criteria.js";
 import { profileFingerprint } from "./fingerprint.js";
@@ -102,23 +103,7 @@ export function unreliableFits(entries: readonly { fit: FitResult; label: string
 /** The `fringekit compare --json` document of a comparison. */
 export function comparisonJson(result: ComparisonResult): ComparisonJson {
   return {
-    ranking: result.rows.map((r) => ({
-      model: r.modelId,
-      label: r.label,
-      converged: r.converged,
-      n: r.n,
-      k: r.k,
-      logLikelihood: r.logLikelihood,
-      chi2: r.chi2,
-      reducedChi2: r.reducedChi2,
-      aic: r.aic,
-      aicc: r.aicc,
-      bic: r.bic,
-      deltaAic: r.deltaAic,
-      deltaBic: r.deltaBic,
-      weight: r.weight,
-      residualsStructured: r.diagnostics.structured,
-    })),
+    ranking: comparisonRows(result),
     preferred: result.preferred,
     unreliable: result.unreliable,
     criterion: result.criterion,

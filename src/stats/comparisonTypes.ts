@@ -74,14 +74,21 @@ export interface UnreliableFit {
   reasons: string[];
 }
 
+/**
+ * One row of a comparison as every table, widget and JSON file shows it: the comparison's own
+ * row (criteria dimensionless) with the residual diagnostics reduced to one flag. Built by
+ * comparisonRows; `fringekit compare --json` ranking, the comparison widget's table and the
+ * report table all use it.
+ */
+export type ComparisonRow = Omit<ModelComparisonRow, "diagnostics"> & {
+  /** The residual diagnostics found structure (see residualDiagnostics). */
+  residualsStructured: boolean;
+};
+
 /** Shape of `fringekit compare --json`. */
 export interface ComparisonJson {
-  /** The table's rows without the diagnostics, with the model id as `model`. */
-  ranking: (Pick<ModelComparisonRow, "label" | "converged" | "n" | "k" | "logLikelihood" | "chi2" | "reducedChi2" | "aic" | "aicc" | "bic" | "deltaAic" | "deltaBic" | "weight"> & {
-    model: string;
-    /** The residual diagnostics found structure (see residualDiagnostics). */
-    residualsStructured: boolean;
-  })[];
+  /** The rows best first (see ComparisonRow). */
+  ranking: ComparisonRow[];
   preferred: string | null;
   unreliable: UnreliableFit[];
   criterion: Criterion;

@@ -1,10 +1,5 @@
 // Statistics of fringekit: re-exports only.
-export * from "./gamma.js";
-export * from "./beta.js";
-export * from "./normal.js";
-export * from "./chiSquared.js";
-export * from "./fDistribution.js";
-export * from "./studentT.js";
+export * from "../math/index.js";
 export * from "./fingerprint.js";
 export * from "./criteria.js";
 export * from "./nested.js";
@@ -13,11 +8,13 @@ export * from "./residualTests.js";
 export * from "./residualDiagnostics.js";
 export * from "./comparisonTypes.js";
 export * from "./compareFits.js";
+export * from "./comparisonRows.js";
 export * from "./quantity.js";
 export * from "./fringeGeometry.js";
 export * from "./measuredExtrema.js";
 export * from "./coherence.js";
-export * from "./farField.js";
+// farFieldValidity is offered by api/ (a planned geometry or a fit: one name for both).
+export { isFarFieldModel, type FarFieldValidity } from "./farField.js";
 export * from "./sourceSize.js";
 export * from "./localVisibility.js";
 export * from "./derivedQuantities.js";

@@ -6,8 +6,8 @@
  */
 import { InvalidArgumentError } from "../errors.js";
 import type { FitResult } from "../fit/types.js";
-import { chiSquaredSurvival } from "./chiSquared.js";
-import { fSurvival } from "./fDistribution.js";
+import { chiSquaredSurvival } from "../math/chiSquared.js";
+import { fSurvival } from "../math/fDistribution.js";
 
 /** Likelihood-ratio and F test of one nested pair of fits. */
 export interface NestedTestResult {

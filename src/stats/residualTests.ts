@@ -7,7 +7,7 @@
  * Horne & Baliunas 1986).
  */
 import { InvalidArgumentError } from "../errors.js";
-import { normalCdf, normalTwoSided } from "./normal.js";
+import { normalCdf, normalTwoSided } from "../math/normal.js";
 
 /** Result of the Wald–Wolfowitz runs test. */
 export interface RunsTestResult {

@@ -10,7 +10,7 @@ import type { FitResult } from "../fit/types.js";
 import type { Profile } from "../profile.js";
 import { requireFitParameter } from "./fitParameters.js";
 import { derivedQuantity, propagateDerived, type Calibration, type DerivedQuantity, type Values } from "./quantity.js";
-import { studentTQuantile } from "./studentT.js";
+import { studentTQuantile } from "../math/studentT.js";
 
 /**
  * A Profile of a coherence scan for fitting with "coherence-disc" or "coherence-gaussian":

@@ -3,7 +3,7 @@
  * of thumb of Burnham & Anderson (Model Selection and Multimodel Inference, 2002, §2.6): below 2
  * the models are indistinct, above 10 the worse one has essentially no support.
  */
-import { chiSquaredSurvival } from "./chiSquared.js";
+import { chiSquaredSurvival } from "../math/chiSquared.js";
 import type { Criterion, LabelledEntry, ModelComparisonRow, UnreliableFit } from "./comparisonTypes.js";
 import { farFieldValidity, isFarFieldModel } from "./farField.js";
 import type { NestedTestResult } from "./nested.js";

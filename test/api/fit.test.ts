@@ -153,6 +153,14 @@ describe("compare({ label: fit, … }) → Comparison", () => {
     expect(comparison.report().toString()).toMatch(/ideal/);
   });
 
+  it(".report() fills the goodness-of-fit column from the fits themselves (not \"–\")", () => {
+    // The ideal model misses the broadband line: its goodness test is not "good".
+    expect(ideal.goodness.verdict).not.toBe("good");
+    const word = (v: string) => (v === "poor" ? "POOR" : v === "not-tested" ? "not tested" : v);
+    const rows = comparison.report().table.rows.map((r) => ("cells" in r ? [r.cells[0], r.cells[1]] : []));
+    expect(rows).toEqual([["broadband", word(broadband.goodness.verdict)], ["ideal", word(ideal.goodness.verdict)]]);
+  });
+
   it("compare([fitA, fitB]) labels by model id; compare of fits to different data is refused", () => {
     expect(compare([ideal, broadband]).best).toBe(broadband);
     const other = fitProfile({ ...lineA, y: lineA.y.map((v, i) => v + (i % 2)) }, "two-slit", { fix: bench });

@@ -4,7 +4,7 @@ import { tmpdir } from "node:os";
 import { join } from "node:path";
 import { fileURLToPath } from "node:url";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { batchCsv, spreadsheetSafe } from "../../cli/batchRow.js";
+import { batchCsv, spreadsheetSafe, type BatchRow } from "../../cli/batchRow.js";
 import { parseShard, shardFromSlurm, shardPositions } from "../../cli/batchShard.js";
 import { getModel, pixelPositions, simulateProfile } from "../../src/index.js";
 import { writeTiff } from "../io/writeTiff.js";
@@ -77,7 +77,8 @@ describe("spreadsheetSafe(text), batchCsv(rows)", () => {
   it("batchCsv: a file named =HYPERLINK(...) and a message starting with - are quoted text; negative numbers stay numbers", () => {
     const csv = batchCsv([
       { file: '=HYPERLINK("http://x","y")', status: "error", message: "-bad", fit: null },
-      { file: "ok.csv", status: "ok", message: "done", fit: { model: "m", converged: true, reason: "r", params: { phase: { value: -0.5, uncertainty: 0.1, unit: "rad", fixed: false } }, stats: { n: 3, dof: 2, chi2: 1, reducedChi2: 0.5, logLikelihood: -1, aic: -2.5, aicc: 1, bic: 1 }, warnings: [], goodness: null, provenance: null } },
+      // A row as part files wrote it before the one JSON shape of a fit (model, stats): still read.
+      { file: "ok.csv", status: "ok", message: "done", fit: { model: "m", converged: true, reason: "r", params: { phase: { value: -0.5, uncertainty: 0.1, unit: "rad", fixed: false } }, stats: { n: 3, dof: 2, chi2: 1, reducedChi2: 0.5, logLikelihood: -1, aic: -2.5, aicc: 1, bic: 1 }, warnings: [], goodness: null, provenance: null } as unknown as BatchRow["fit"] },
     ]);
     const rows = csv.trim().split("\n");
     expect(rows[1]).toBe(`"'=HYPERLINK(""http://x"",""y"")",error,'-bad,,,,,,`);

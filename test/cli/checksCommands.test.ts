@@ -61,11 +61,12 @@ describe("fringekit fit: saturated tables and units", () => {
     const masked = JSON.parse((await runInProcess(["fit", clipped, "--fix", "wavelength=632.8nm", "--fix", "distance=1m", "--json"])).stdout);
     const warning = masked.warnings.find((w: { code: string }) => w.code === "saturated-masked");
     expect(warning.message).toMatch(/^\d+ saturated samples \(at the detector top code 4095\) masked at x = /);
-    // Truth 0.8 (the simulation above): within 4 standard uncertainties, or the fit says it is
-    // wrong (poor-fit) when the automatic starts miss on the masked line (see test/fit/fitChecks).
-    if (!(Math.abs(masked.params.visibility.value - 0.8) < 4 * masked.params.visibility.uncertainty)) {
-      expect(masked.warnings.map((w: { code: string }) => w.code)).toContain("poor-fit");
-    }
+    // Truths of the simulation above: visibility 0.8 and separation 0.5 mm, each within 4
+    // standard uncertainties; the fit is neither poor nor fringe-less.
+    expect(Math.abs(masked.params.visibility.value - 0.8)).toBeLessThan(4 * masked.params.visibility.uncertainty);
+    expect(Math.abs(masked.params.separation.value - 0.5e-3)).toBeLessThan(4 * masked.params.separation.uncertainty);
+    expect(masked.warnings.map((w: { code: string }) => w.code)).not.toContain("poor-fit");
+    expect(masked.warnings.map((w: { code: string }) => w.code)).not.toContain("no-fringes");
     const kept = await runInProcess(["fit", clipped, "--fix", "wavelength=632.8nm", "--fix", "distance=1m", "--json", "--keep-saturated"]);
     expect(JSON.parse(kept.stdout).warnings.map((w: { code: string }) => w.code)).toContain("saturated-kept");
     expect((await runInProcess(["fit", clipped, "--mask-saturated", "--keep-saturated"])).code).toBe(2);

@@ -33,22 +33,39 @@ describe("fringekit fit FILE", () => {
     const { code, stdout } = await runInProcess(["fit", line, "--json"]);
     expect(code).toBe(0);
     const json = JSON.parse(stdout);
-    expect(Object.keys(json)).toEqual(["model", "converged", "reason", "params", "stats", "warnings", "goodness", "provenance"]);
+    // The one JSON shape of a fit (src/report/results/fitJson) plus where the data came from.
+    expect(Object.keys(json)).toEqual(["modelId", "noise", "converged", "reason", "message", "iterations", "params", "statistics", "warnings", "goodness", "provenance"]);
     // Poisson counts: the χ² test runs; simulated from the model itself, so χ²/ν ≈ 1 (Pearson 1900).
     expect(json.goodness).toMatchObject({ test: "pearson-chi2", verdict: "good" });
     expect(json.goodness.fringes.significant).toBe(true);
-    expect(Object.keys(json.stats)).toEqual(["n", "dof", "chi2", "reducedChi2", "logLikelihood", "aic", "aicc", "bic"]);
-    expect(json.model).toBe("two-slit");
+    expect(Object.keys(json.statistics)).toEqual(["n", "nFree", "dof", "chi2", "reducedChi2", "objective", "logLikelihood", "aic", "aicc", "bic"]);
+    expect(json.modelId).toBe("two-slit");
     expect(json.converged).toBe(true);
-    expect(Object.keys(json.params.separation)).toEqual(["value", "uncertainty", "unit", "fixed"]);
+    expect(Object.keys(json.params.separation)).toEqual(["value", "uncertainty", "unit", "fixed", "atBound"]);
     for (const name of ["separation", "width", "visibility", "center"] as const) {
       const p = json.params[name];
       expect(Math.abs(p.value - TRUTH[name]) / p.uncertainty, name).toBeLessThan(4);
     }
     expect(json.params.wavelength).toMatchObject({ value: 632.8e-9, uncertainty: 0, unit: "m", fixed: true });
-    expect(json.stats.n).toBe(2048);
+    expect(json.statistics.n).toBe(2048);
     expect(json.provenance.source).toBe("line.csv");
     expect(json.provenance.sha256).toMatch(/^[0-9a-f]{64}$/);
+  });
+
+  it("fringekit fit --json and the results file --out res.json hold the fit in one shape (the file adds what replay needs)", async () => {
+    const out = join(work, "one-shape.json");
+    const { code, stdout } = await runInProcess(["fit", line, "--json", "--out", out]);
+    expect(code).toBe(0);
+    const printed = JSON.parse(stdout);
+    const recorded = JSON.parse(readFileSync(out, "utf8")).fits[0].result;
+    for (const key of ["modelId", "noise", "converged", "reason", "message", "iterations", "statistics", "goodness"]) expect(recorded[key], key).toEqual(printed[key]);
+    expect(Object.keys(recorded.params)).toEqual(Object.keys(printed.params));
+    for (const [name, p] of Object.entries(printed.params as Record<string, Record<string, unknown>>)) {
+      expect(recorded.params[name], name).toMatchObject(p);
+      expect(Object.keys(recorded.params[name]), name).toEqual([...Object.keys(p), "tied", "lower", "upper"]);
+    }
+    // JSON has no infinity: an unbounded parameter's bound is tagged as everywhere in results files.
+    expect(recorded.params.separation.upper).toEqual({ nonFinite: "Infinity" });
   });
 
   it("fringekit fit line.csv --set wavelength=632.8 nm --fix visibility=0.85 uses units with or without a space", async () => {
@@ -134,8 +151,8 @@ describe("fringekit compare FILE --models", () => {
     expect((await runInProcess(["compare", line, "--models", "two-slit,single-slit", "--json", "--accept-doubtful"])).code).toBe(0);
     const json = JSON.parse(stdout);
     expect(json.preferred).toBe("two-slit");
-    expect(Object.keys(json.ranking[0])).toEqual(expect.arrayContaining(["model", "aic", "bic", "deltaAic", "weight"]));
-    expect(json.ranking.map((r: { model: string }) => r.model)).toEqual(["two-slit", "single-slit"]);
+    expect(Object.keys(json.ranking[0])).toEqual(expect.arrayContaining(["modelId", "aic", "bic", "deltaAic", "weight", "residualsStructured"]));
+    expect(json.ranking.map((r: { modelId: string }) => r.modelId)).toEqual(["two-slit", "single-slit"]);
     expect(typeof json.verdict).toBe("string");
   });
 });

@@ -45,6 +45,22 @@ async function submitAndWait(script: string, extra: string[], timeoutMs: number)
   throw new Error(`Slurm job ${job} did not finish within ${timeoutMs / 1000} s (cancelled)`);
 }
 
+// The cluster of scripts/slurm-local.sh (its slurm.conf says so) must not be reachable from the network.
+const confPath = env["SLURM_CONF"];
+const localCluster = confPath !== undefined && existsSync(confPath) && readFileSync(confPath, "utf8").includes("written by scripts/slurm-local.sh");
+const hasSs = spawnSync("ss", ["-V"], { encoding: "utf8" }).status === 0;
+
+describe.runIf(reachable && localCluster && hasSs)("scripts/slurm-local.sh", () => {
+  it("slurmctld and slurmd listen on 127.0.0.1 only (ss -ltnp, their pid files)", () => {
+    const folder = confPath!.replace(/\/slurm\.conf$/, "");
+    const pids = ["slurmctld.pid", "slurmd.pid"].map((name) => readFileSync(join(folder, name), "utf8").trim());
+    const sockets = spawnSync("ss", ["-Hltnp"], { encoding: "utf8" }).stdout.split("\n").filter((line) => pids.some((pid) => line.includes(`pid=${pid},`)));
+    // Both daemons listen (so the check cannot pass vacuously), and every local address is loopback.
+    expect(pids.every((pid) => sockets.some((line) => line.includes(`pid=${pid},`))), sockets.join("\n")).toBe(true);
+    for (const line of sockets) expect(line.trim().split(/\s+/)[3], line).toMatch(/^127\.0\.0\.1:\d+$/);
+  });
+});
+
 describe.runIf(reachable || required)("fringekit batch --slurm-script on a Slurm cluster, fringekit merge", () => {
   it(`sbatch of a 4-task array over ${COUNT} profiles, merged == one-machine batch; a lost shard is named by merge and re-run alone`, async () => {
     expect(reachable, `CI needs the Slurm cluster of scripts/slurm-local.sh (sinfo said: ${probe.stderr.trim() || probe.stdout.trim()})`).toBe(true);

@@ -4,7 +4,7 @@
 // the ECMAScript spec's [[Prototype]] and Object.prototype.__proto__ accessor).
 import { afterEach, describe, expect, it } from "vitest";
 import { putBuffers } from "../../kernel-ext/widget/buffers.js";
-import { checkBufferPaths } from "../../widgets/src/bufferPaths.js";
+import { checkBufferPaths } from "../../widgets/shared/bufferPaths.js";
 
 const view = () => new DataView(new ArrayBuffer(4));
 afterEach(() => {

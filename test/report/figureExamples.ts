@@ -10,7 +10,7 @@ import { getModel } from "../../src/physics/registry.js";
 import { paramVector, pixelPositions, simulateProfile } from "../../src/physics/simulate.js";
 import type { Profile } from "../../src/profile.js";
 import type { LabelledFit } from "../../src/report/comparisonTable.js";
-import type { ProfileCurve } from "../../src/report/figures/profileLikelihoodFigure.js";
+import type { ProfileCurve } from "../../src/fit/profileCurve.js";
 
 /** B1-like truth (shared/bench/PROBLEMS.md), on a shorter 1024-pixel line with 11 µm pitch. */
 export const TWO_SLIT_TRUTH = {

@@ -7,9 +7,9 @@ import { comparisonReport } from "../../src/report/tableReport.js";
 import { readTable } from "../../src/io/parseTable.js";
 import { getModel } from "../../src/physics/registry.js";
 import { pixelPositions, simulateProfile } from "../../src/physics/simulate.js";
-import { profileCurve } from "../../src/report/figures/profileCurve.js";
+import { profileCurve } from "../../src/fit/profileCurve.js";
 import { profileLikelihoodFigure } from "../../src/report/figures/profileLikelihoodFigure.js";
-import { replayResults } from "../../src/report/results/replay.js";
+import { replayResults } from "../../src/api/replay.js";
 import { fitDocument, parseResults, stringifyResults } from "../../src/report/results/resultsDocument.js";
 import { TWO_SLIT_TRUTH } from "./figureExamples.js";
 
@@ -95,7 +95,7 @@ describe("comparisonReport(fits, {verdict, tests}) with compareFits", () => {
     const fits = [{ label: "V free", result: free }, { label: "V = 0.8", result: fixedV }];
     const comparison = compareFits(fits.map((f) => ({ fit: f.result, label: f.label, profile })));
     expect(comparison.tests.length).toBe(1);
-    const text = comparisonReport(fits, { verdict: comparison.verdict, tests: comparison.tests }).toString();
+    const text = comparisonReport(comparison, { verdict: comparison.verdict, tests: comparison.tests, fits }).toString();
     expect(text).toMatch(/V = 0\.8 within V free \(1 extra parameter\): likelihood ratio [\d.]+, p < 1e-12; F\(1, 505\) = [\d.]+, p < 1e-12\./);
     expect(text).toContain(comparison.verdict);
     expect(text.split("\n")[3]).toMatch(/^V free /); // best AIC first

@@ -3,7 +3,7 @@
 // number of fits, evaluation budget), naming the limit. The engine here fails the test if asked to fit.
 import { describe, expect, it } from "vitest";
 import { DataError } from "../../src/index.js";
-import { replayResults, REPLAY_LIMITS } from "../../src/report/results/replay.js";
+import { replayResults, REPLAY_LIMITS } from "../../src/api/replay.js";
 import type { ResultsDocument } from "../../src/report/results/resultsDocument.js";
 
 const engine = {

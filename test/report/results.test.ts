@@ -4,9 +4,9 @@ import { DataError } from "../../src/errors.js";
 import type { FitResult } from "../../src/fit/types.js";
 import { getModel } from "../../src/physics/registry.js";
 import type { Profile } from "../../src/profile.js";
-import { decodeFloat64, encodeArray } from "../../src/report/results/arrays.js";
+import { decodeFloat64, encodeArray, encodeJson } from "../../src/report/results/arrays.js";
 import { decodeBase64, encodeBase64 } from "../../src/report/results/base64.js";
-import { replayResults, type ReplayEngine } from "../../src/report/results/replay.js";
+import { replayResults, type ReplayEngine } from "../../src/api/replay.js";
 import {
   comparisonDocument, fitDocument, parseResults, RESULTS_FORMAT_VERSION, scanDocument, stringifyResults,
 } from "../../src/report/results/resultsDocument.js";
@@ -47,8 +47,8 @@ describe("encodeArray / decodeFloat64", () => {
 describe("fitDocument(profile, fit) → stringifyResults → parseResults", () => {
   it("parseResults(text) reads files written before the rename: parameter \"stderr\" becomes \"uncertainty\"", () => {
     const { profile, result } = fileProfile();
-    const text = stringifyResults(fitDocument(profile, { result }));
-    const old = JSON.parse(text);
+    // Written as version 1 did: parameters as a list (encodeJson of the document), `stderr`.
+    const old = encodeJson({ ...fitDocument(profile, { result }), formatVersion: 1 }) as { fits: { result: { parameters: Record<string, unknown>[] } }[] };
     for (const p of old.fits[0].result.parameters) { p.stderr = p.uncertainty; delete p.uncertainty; }
     const back = parseResults(JSON.stringify(old));
     expect(back.fits[0].result.parameters.map((p) => p.uncertainty)).toEqual(result.parameters.map((p) => p.uncertainty));

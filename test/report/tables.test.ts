@@ -5,7 +5,8 @@ import { join } from "node:path";
 import { describe, expect, it } from "vitest";
 import { escapeHtml, escapeLatex, escapeMarkdown } from "../../src/report/escape.js";
 import { comparisonReport, fitReport, quantityReport } from "../../src/report/tableReport.js";
-import { comparisonTable, rankFits, testNote } from "../../src/report/comparisonTable.js";
+import { comparisonTable, testNote, type LabelledFit } from "../../src/report/comparisonTable.js";
+import { comparisonRows } from "../../src/stats/comparisonRows.js";
 import { compareFits } from "../../src/stats/compareFits.js";
 import { HOSTILE, makeFitResult } from "./fixtures.js";
 
@@ -107,14 +108,17 @@ describe("fitReport(result, options)", () => {
   if (!existsSync(PDFLATEX)) console.warn("SKIPPED: LaTeX compile checks (Debian texlive-latex-base not installed)");
 });
 
-describe("comparisonReport(fits, options)", () => {
+/** The ranking of stats' compareFits, as the table's rows. */
+const rankFits = (fits: readonly LabelledFit[]) => comparisonRows(compareFits(fits.map((f) => ({ fit: f.result, label: f.label }))));
+
+describe("comparisonReport(compareFits(fits), options)", () => {
   const a = makeFitResult();
   // ln L = −298.25 with k = 8 of n = 64: AIC = 596.5 + 16 = 612.5, BIC = 596.5 + 8 ln 64 (hand-checked).
   const b = makeFitResult({
     modelId: "two-slit-fresnel",
     statistics: { ...a.statistics, nFree: 8, dof: 56, logLikelihood: -298.25, aic: 612.5, aicc: 615.1, bic: 596.5 + 8 * Math.log(64) },
   });
-  it("rankFits orders by AIC with Akaike weights exp(-Δ/2)/Σ (Burnham & Anderson 2002, §2.9; hand-checked)", () => {
+  it("compareFits rows order by AIC with Akaike weights exp(-Δ/2)/Σ (Burnham & Anderson 2002, §2.9; hand-checked)", () => {
     const rows = rankFits([{ label: "far", result: a }, { label: "near", result: b }]);
     expect(rows.map((r) => r.label)).toEqual(["near", "far"]);
     expect(rows[1].deltaAic).toBeCloseTo(4.0, 12);
@@ -124,7 +128,7 @@ describe("comparisonReport(fits, options)", () => {
     // ΔBIC = (602.5 + 7 ln 64) − (596.5 + 8 ln 64) = 6 − ln 64 (hand-checked)
     expect(rows[1].deltaBic).toBeCloseTo(6 - Math.log(64), 12);
   });
-  it("rankFits gives a fit that did not converge weight 0 and the last place, as compareFits does", () => {
+  it("compareFits gives a fit that did not converge weight 0 and the last place, as compareFits does", () => {
     // The unconverged fit has the lowest AIC; counting it would give it weight 0.88 (see above).
     const stuck = { ...b, converged: false, reason: "max-evaluations" as const };
     const rows = rankFits([{ label: "far", result: a }, { label: "near", result: stuck }]);
@@ -137,12 +141,21 @@ describe("comparisonReport(fits, options)", () => {
     const second = table.rows[1];
     expect("cells" in second ? second.cells[7] : undefined).toBe("0"); // weight column, after the goodness-of-fit column
   });
-  it("rankFits refuses fits of different point counts or noise models", () => {
+  it("compareFits refuses fits of different noise models", () => {
     const other = makeFitResult({ noise: "gaussian" });
-    expect(() => rankFits([{ label: "a", result: a }, { label: "b", result: other }])).toThrow(/same data and noise model/);
+    expect(() => rankFits([{ label: "a", result: a }, { label: "b", result: other }])).toThrow(/only compare fits with the same noise model/);
+  });
+  it("comparisonTable(list of fits) refuses: the report lays out a ranking, it does not rank", () => {
+    const list = [{ label: "a", result: a }, { label: "b", result: b }] as unknown as Parameters<typeof comparisonTable>[0];
+    expect(() => comparisonTable(list)).toThrow(/a compareFits\(\.\.\.\) result \(rank a list of fits with compareFits or compare first\)/);
+  });
+  it("comparisonTable(comparison, { fits }) shows each fit's goodness of fit", () => {
+    const fits = [{ label: "far", result: a }, { label: "near", result: b }];
+    const table = comparisonTable(compareFits(fits.map((f) => ({ fit: f.result, label: f.label }))), { fits });
+    expect(table.rows.map((r) => ("cells" in r ? r.cells[1] : ""))).toEqual([b.goodness?.verdict, a.goodness?.verdict].map((v) => (v === "poor" ? "POOR" : v === "not-tested" ? "not tested" : v ?? "–")));
   });
   it("comparisonReport(...) renders, escapes labels and verdict, and compiles", () => {
-    const r = comparisonReport([{ label: HOSTILE[2], result: a }, { label: "near <b>", result: b }], { verdict: HOSTILE[0] });
+    const r = comparisonReport(compareFits([{ label: HOSTILE[2], fit: a }, { label: "near <b>", fit: b }]), { verdict: HOSTILE[0] });
     expect(r.toHtml()).toContain("near &lt;b&gt;");
     expect(r.toHtml()).not.toContain("<script");
     expect(r.toMarkdown().split("\n").filter((l) => l.startsWith("|")).length).toBe(4); // header + rule + 2 fits

@@ -94,8 +94,8 @@ describe("compareFits", () => {
   it("comparisonJson(result) has the compare --json shape", () => {
     const json = comparisonJson(compareFits([far, near], { profile }));
     expect(Object.keys(json)).toEqual(expect.arrayContaining(["ranking", "preferred", "verdict"]));
-    expect(json.ranking[0]).toMatchObject({ model: "two-slit-fresnel", aic: 2610, deltaAic: 0 });
-    expect(json.ranking[1]).toMatchObject({ model: "two-slit", aic: 3008, deltaAic: 398, residualsStructured: true });
+    expect(json.ranking[0]).toMatchObject({ modelId: "two-slit-fresnel", aic: 2610, deltaAic: 0 });
+    expect(json.ranking[1]).toMatchObject({ modelId: "two-slit", aic: 3008, deltaAic: 398, residualsStructured: true });
     expect(JSON.parse(JSON.stringify(json)).preferred).toBe("two-slit-fresnel");
   });
 });

@@ -1,5 +1,6 @@
 import { describe, expect, it } from "vitest";
-import { coherenceScanProfile, farFieldValidity, sourceSize } from "../../src/stats/index.js";
+import { farFieldValidity } from "../../src/api/farField.js";
+import { coherenceScanProfile, sourceSize } from "../../src/stats/index.js";
 import { fakeFit } from "./fakeFit.js";
 import { expectClose } from "./python.js";
 

@@ -1,10 +1,10 @@
 // Checks that need the fitter and the physics models: model choice between near- and far-field
 // models, and recovery of known truths from seeded simulations for the derived quantities.
 import { describe, expect, it } from "vitest";
-import { fitProfile } from "../../src/api/index.js";
+import { farFieldValidity, fitProfile } from "../../src/api/index.js";
 import { getModel, paramVector, pixelPositions, simulateProfile, twoSlitSourceModel } from "../../src/physics/index.js";
 import {
-  coherenceLength, coherenceScanProfile, compareFits, degreeOfCoherence, farFieldValidity, fitSourceSizeJointly, fringeGeometry, fringeMaxima,
+  coherenceLength, coherenceScanProfile, compareFits, degreeOfCoherence, fitSourceSizeJointly, fringeGeometry, fringeMaxima,
   sourceSize,
 } from "../../src/stats/index.js";
 import { seeded } from "./fakeFit.js";

@@ -5,6 +5,7 @@ import { fitProfile } from "../../src/fit/fitProfile.js";
 import { getModel, paramVector, pixelPositions, simulateProfile } from "../../src/physics/index.js";
 import { MIME_BUNDLE } from "../../kernel-ext/display.js";
 import { explorer } from "../../kernel-ext/widgets/explorer.js";
+import { fitJson } from "../../src/report/results/fitJson.js";
 import { installFakeKernel } from "./fakeKernel.js";
 
 // B1 of ../shared/bench/PROBLEMS.md, 1024 pixels of 22 µm (same field of view).
@@ -76,7 +77,20 @@ describe("explorer (kernel side)", () => {
     const updates = kernel.messages.filter((m) => m.msgType === "comm_msg" && m.content.data.method === "update").map((m) => m.content.data.state);
     expect(updates.some((s) => s.fit_state === "running")).toBe(true);
     expect(updates.some((s) => s.result && s.result.converged === true)).toBe(true);
+    // The widget carries the one JSON shape of a fit (as `fringekit fit --json` prints it).
+    expect(updates.find((s) => s.result)!.result).toEqual(JSON.parse(JSON.stringify(fitJson(result))));
     expect(ex.params.separation).toBe(result.parameters.find((p) => p.name === "separation")!.value);
+  });
+
+  it("explorer(profile, { start, fix }) takes fitProfile's option shape: quantities with units as text", () => {
+    kernel = installFakeKernel();
+    const ex = explorer(b1Profile(), { start: { ...start, separation: "0.497 mm" }, fix: { wavelength: "632.8 nm", distance: "100 cm" } });
+    const params = ex.widget.get("params");
+    expect(params.separation!.value).toBeCloseTo(0.497e-3, 15); // 1 mm = 1e-3 m (SI)
+    expect(params.wavelength).toMatchObject({ fixed: true });
+    expect(params.wavelength!.value).toBeCloseTo(632.8e-9, 20);
+    expect(params.distance).toMatchObject({ value: 1, fixed: true });
+    expect(() => explorer(b1Profile(), { fix: { wavelength: "632.8 kg" } })).toThrow(/fix\.wavelength/);
   });
 
   it("explorer masks the browser's masked ranges and window in the fit request", () => {

@@ -4,7 +4,12 @@ import { readFileSync } from "node:fs";
 import { createRequire } from "node:module";
 import { Ajv } from "ajv";
 import { describe, expect, it } from "vitest";
-import { demoWidgets } from "./demoWidgets.js";
+import { fitProfile } from "../../src/fit/fitProfile.js";
+import { getModel } from "../../src/physics/index.js";
+import { MIME_BUNDLE } from "../../kernel-ext/display.js";
+import { comparison } from "../../kernel-ext/widgets/comparison.js";
+import { b1Profile, b1Start, demoWidgets } from "./demoWidgets.js";
+import { installFakeKernel } from "./fakeKernel.js";
 
 const require = createRequire(import.meta.url);
 
@@ -28,6 +33,29 @@ describe("kernel-side widgets", () => {
     const curves = model.buffers!.find((b) => b.path[0] === "curves")!;
     expect(Buffer.from(curves.data, "base64").byteLength).toBe(3 * 512 * 8);
     expect(String(model.state.verdict)).toContain("two-slit, V free");
+  });
+
+  it("comparison(...)[MIME_BUNDLE]() text fallback is the comparison report with each fit's goodness of fit", () => {
+    const kernel = installFakeKernel();
+    try {
+      const profile = b1Profile(512);
+      const model = getModel("two-slit");
+      const fix = { wavelength: 632.8e-9, distance: 1 };
+      const free = fitProfile(profile, model, { fix, start: b1Start });
+      const coherent = fitProfile(profile, model, { fix: { ...fix, visibility: 1 }, start: b1Start });
+      const cmp = comparison(profile, [{ label: "V free", result: free }, { label: "V = 1", result: coherent }]);
+      const text = (cmp[MIME_BUNDLE]() as Record<string, string>)["text/plain"]!;
+      const row = text.split("\n").find((line) => /^\s*V free\s{2,}/.test(line))!;
+      // The goodness-of-fit column comes from the fits themselves ("–" only when the table lacks them).
+      expect(row.split(/\s{2,}/)[1]).toBe(free.goodness.verdict === "not-tested" ? "not tested" : free.goodness.verdict === "poor" ? "POOR" : free.goodness.verdict);
+    } finally {
+      kernel.uninstall();
+    }
+  });
+
+  it("the comparison widget's table rows are the one comparison row (as compare --json's ranking and the report table)", () => {
+    const table = state.state[ids.comparison]!.state.table as Record<string, unknown>[];
+    expect(Object.keys(table[0]!).sort()).toEqual(["aic", "aicc", "bic", "chi2", "converged", "deltaAic", "deltaAicc", "deltaBic", "k", "label", "logLikelihood", "modelId", "n", "reducedChi2", "residualsStructured", "weight"]);
   });
 
   it("uncertainty(result, ...) profiles each parameter: Δ ≈ 0 at the best fit, intervals bracket it", () => {

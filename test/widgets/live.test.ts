@@ -159,7 +159,7 @@ run("live notebook: explorer in a real kernel and browser", () => {
     expect(kernelResult.converged).toBe(true);
     // Simulation truth within 3 standard errors (B1 acceptance).
     expect(Math.abs(kernelResult.separation - 0.5e-3)).toBeLessThan(3 * kernelResult.uncertainty);
-    const browserSeparation = await page.evaluate(`live.views.find((v) => v.el.closest(${JSON.stringify(host)})).model.get("result").parameters.find((p) => p.name === "separation").value`);
+    const browserSeparation = await page.evaluate(`live.views.find((v) => v.el.closest(${JSON.stringify(host)})).model.get("result").params.separation.value`);
     expect(browserSeparation).toBe(kernelResult.separation);
     expect(pageErrors).toEqual([]);
   });

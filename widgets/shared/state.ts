@@ -3,10 +3,10 @@
  * profiled parameters, fitted source quantities, fit progress. Pure (no DOM, no Node); imported
  * by kernel-ext/widgets and widgets/src alike.
  */
-import type { ModelComparisonRow } from "../../src/stats/comparisonTypes.js";
+import type { ComparisonRow } from "../../src/stats/comparisonTypes.js";
 
-/** One row of the comparison widget's table: the comparison's own row type, JSON part (criteria dimensionless). */
-export type ComparisonTableRow = Pick<ModelComparisonRow, "label" | "modelId" | "k" | "reducedChi2" | "aic" | "bic" | "deltaAic" | "weight" | "converged">;
+/** One row of the comparison widget's table: the comparison row every table and JSON file shows (stats/comparisonRows). */
+export type ComparisonTableRow = ComparisonRow;
 
 /** One profiled parameter of the uncertainty widget (JSON part; the curve itself is a row of `grid` / `delta`). */
 export interface ProfiledParameter {

@@ -13,7 +13,7 @@ import { modelFor, modelIds } from "../shared/catalog.js";
 import { residualAxisTitle, residualScale, type ResidualScale } from "../../src/fit/residualScale.js";
 import { h, setChildren } from "./dom.js";
 import { displayUnitFor, formatNumber, formatWithUncertainty } from "./displayUnits.js";
-import type { FitSummary } from "../shared/fitSummary.js";
+import { readFitJson, type FitJson } from "../../src/report/results/fitJson.js";
 import { axis, baseLayout, FigureView } from "./figureView.js";
 import { ParamRow } from "./paramRow.js";
 import { effectiveMask, paramsForModel, paramVector, residuals, type ParamState } from "../shared/preview.js";
@@ -25,7 +25,7 @@ type DragMode = "zoom" | "mask" | "window";
 
 /** A fitter the page provides when no kernel is attached (the static export runs one in a Web Worker). */
 export interface LocalFitter {
-  fit(request: LocalFitRequest, onProgress: (fraction: number, message: string) => void, signal: AbortSignal): Promise<{ summary: FitSummary; curve: Float64Array; params: Record<string, ParamState> }>;
+  fit(request: LocalFitRequest, onProgress: (fraction: number, message: string) => void, signal: AbortSignal): Promise<{ summary: FitJson; curve: Float64Array; params: Record<string, ParamState> }>;
 }
 
 /** Everything a fit needs, as the explorer holds it. */
@@ -321,7 +321,7 @@ export class ExplorerView extends FigureView {
     const n = x.data.length;
     const sigma = this.array("sigma")?.data ?? null;
     const fit = this.array("fit_curve");
-    const summary = this.model.get("result") as FitSummary | null;
+    const summary = this.model.get("result") as FitJson | null;
     const fitted = fit !== null && fit.data.length === n && summary !== null;
     let curve: Float64Array;
     if (fitted) curve = Float64Array.from(fit.data);
@@ -442,19 +442,21 @@ export class ExplorerView extends FigureView {
   }
 
   private showResult(): void {
-    const result = this.model.get("result") as FitSummary | null;
-    if (result === null) {
+    const stored = this.model.get("result") as unknown;
+    if (stored === null || stored === undefined) {
       setChildren(this.resultEl, h("div", { class: "fk-status" }, "No fit yet."));
       return;
     }
-    const rows = result.parameters.map((p) => {
-      const unit = this.rows.get(p.name)?.unit ?? displayUnitFor(p.unit, p.value);
+    // The one JSON shape of a fit; notebooks saved before it hold a `parameters` list, read alike.
+    const result = readFitJson(stored, "explorer result");
+    const rows = Object.entries(result.params).map(([name, p]) => {
+      const unit = this.rows.get(name)?.unit ?? displayUnitFor(p.unit, p.value);
       const shown = p.fixed
         ? `${formatNumber(p.value * unit.factor)} (fixed)`
-        : p.uncertainty === null ? `${formatNumber(p.value * unit.factor)} ± ?` : formatWithUncertainty(p.value * unit.factor, p.uncertainty * unit.factor);
-      return h("tr", { "data-param": p.name }, h("td", {}, p.name), h("td", {}, shown + (p.atBound ? ` ⚑ ${p.atBound}` : "")), h("td", {}, unit.label));
+        : !Number.isFinite(p.uncertainty) ? `${formatNumber(p.value * unit.factor)} ± ?` : formatWithUncertainty(p.value * unit.factor, p.uncertainty * unit.factor);
+      return h("tr", { "data-param": name }, h("td", {}, name), h("td", {}, shown + (p.atBound ? ` ⚑ ${p.atBound}` : "")), h("td", {}, unit.label));
     });
-    const s = result.statistics;
+    const s = result.statistics as Record<string, number>;
     setChildren(this.resultEl,
       h("div", { class: result.converged ? "fk-status" : "fk-status fk-bad" }, `${result.converged ? "converged" : "not converged"}: ${result.message}`),
       h("div", { class: "fk-scroll" }, h("table", { class: "fk-table" },

@@ -1,6 +1,6 @@
 /** Base model of every fringekit widget: module names and versions for the widget protocol. */
 import { DOMWidgetModel } from "@jupyter-widgets/base";
-import { checkBufferPaths } from "./bufferPaths.js";
+import { checkBufferPaths } from "../shared/bufferPaths.js";
 import { MODULE_NAME, MODULE_VERSION } from "../shared/version.js";
 
 /** Defaults shared by every fringekit model: `_model_module`, `_view_module` and their versions. */

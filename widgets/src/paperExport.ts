@@ -6,7 +6,7 @@
  */
 import type { FigureSpec } from "../../src/report/figures/figureSpec.js";
 import { figureSvg } from "../../src/report/render/figureSvg.js";
-import { setPngDpi } from "../../kernel-ext/figures/pngDensity.js";
+import { setPngDpi } from "../../src/report/render/pngDensity.js";
 
 /** PNG resolution of the export buttons (dots per inch; the headless exporter's default too). */
 export const EXPORT_DPI = 300;

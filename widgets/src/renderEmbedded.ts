@@ -4,7 +4,7 @@
  * each `<script type="application/vnd.jupyter.widget-view+json">` marks where a view goes.
  */
 import { HTMLManager } from "@jupyter-widgets/html-manager/lib/htmlmanager.js";
-import { checkBufferPaths } from "./bufferPaths.js";
+import { checkBufferPaths } from "../shared/bufferPaths.js";
 import { MODULE_NAME } from "./version.js";
 
 /**

@@ -17,6 +17,7 @@
 import { besselJ012 } from "../../physics/bessel.js";
 import { autoStartCandidates, fringeFrequency, linearFringeFit, movingAverage, resampleUniform, symmetryIndex } from "../autoStart.js";
 import type { StartContext } from "./context.js";
+import { hasInteriorGaps } from "./rank.js";
 
 const FWHM_PER_SIGMA = 2 * Math.sqrt(2 * Math.LN2);
 
@@ -28,7 +29,9 @@ export function farFieldCandidates(ctx: StartContext): Record<string, number>[] 
   const wavelength = has("wavelength") ? known("wavelength") : ctx.effectiveWavelength();
   const slits = has("slits") ? Math.max(1, Math.round(known("slits"))) : 2;
   const fringes = has("separation") && slits !== 1;
-  const base = autoStartCandidates(x, y, wavelength, distance, false, 8, fringes);
+  // A gapped line (masked peaks) misleads the heuristic's own ranking of fringe frequencies:
+  // keep every frequency's candidates for the ranking on the real points (rank.ts).
+  const base = autoStartCandidates(x, y, wavelength, distance, false, hasInteriorGaps(prep) ? 24 : 8, fringes);
   const out: Record<string, number>[] = [];
   const sine = (u: number): number => u / Math.sqrt(u * u + distance * distance);
   for (const c of base) {

@@ -29,6 +29,30 @@ export function scaleParameter(names: readonly string[]): string | null {
  * @param stride use every stride-th point only (ranking many candidates of a costly model)
  */
 export function rescaleCandidate(prep: PreparedFit, candidate: Record<string, number>, stride = 1): RankedStart {
+  const widthFree = prep.plan.names.includes("width") && prep.plan.free.includes(prep.plan.names.indexOf("width"))
+    && prep.options.start?.width === undefined && candidate.width > 0;
+  if (!widthFree || !hasInteriorGaps(prep)) return rescaleOnce(prep, candidate, stride);
+  // The slit width comes from the envelope's fall-off, which masked (e.g. saturated) peaks
+  // flatten: on such a gapped line the envelope looked twice as wide as it is. A short ladder of
+  // widths, the best kept, lets the candidate's fringe period be judged with a fitting envelope.
+  let best: RankedStart | null = null;
+  for (const factor of WIDTH_LADDER) {
+    const r = rescaleOnce(prep, { ...candidate, width: candidate.width * factor }, stride);
+    if (best === null || r.score < best.score) best = r;
+  }
+  return best!;
+}
+
+/** True when masked points lie inside the used range (the heuristics then see interpolated gaps). */
+export function hasInteriorGaps(prep: PreparedFit): boolean {
+  const used = prep.used;
+  return used.length > 0 && used[used.length - 1] - used[0] + 1 > used.length;
+}
+
+/** Multipliers of a candidate's slit width tried by {@link rescaleCandidate}. */
+const WIDTH_LADDER = [1, 1.5, 2.2, 3.2, 0.7];
+
+function rescaleOnce(prep: PreparedFit, candidate: Record<string, number>, stride: number): RankedStart {
   const { plan, model } = prep;
   const names = plan.names;
   const x = strided(prep.x, stride), y = strided(prep.y, stride), sigma = strided(prep.noise.sigma, stride);
@@ -51,6 +75,14 @@ export function rescaleCandidate(prep: PreparedFit, candidate: Record<string, nu
     return true;
   };
   const f = new Float64Array(n);
+  const kVisibility = freeIndex("visibility"), kPhase = freeIndex("phase");
+  // Only on gapped lines: elsewhere the heuristics' own linear fit on the resampled line already
+  // gives V and φ, and the refit would cost four model evaluations per candidate.
+  if (kScale >= 0 && kVisibility >= 0 && kPhase >= 0 && names[plan.free[kScale]] === "amplitude" && hasInteriorGaps(prep)) {
+    refitFringeTerms(theta, { kScale, kOffset, kVisibility, kPhase }, plan.lower, plan.upper, evaluate, y, sigma, n);
+    start.visibility = theta[kVisibility];
+    start.phase = theta[kPhase];
+  }
   if (kScale >= 0) {
     // y − f0 = A·shape + b, shape = f(A = 1, b = 0) − f(A = 0, b = 0).
     const f1 = new Float64Array(n);
@@ -117,6 +149,88 @@ export function rankCandidates(prep: PreparedFit, candidates: Record<string, num
     if (!duplicate) out[Math.min(out.length, keep - 1)] = first;
   }
   return out;
+}
+
+/**
+ * Fringe models are affine in V·cos φ and V·sin φ at fixed geometry: I = b + A·e + A·V·(cos φ·c − sin φ·s)
+ * with e, c, s fixed shapes (detector effects are linear too). Solving that weighted linear least
+ * squares problem gives the start's visibility and phase, so that a candidate is ranked by how well
+ * its geometry can describe the data, not by how good the heuristic's contrast guess was (a line
+ * with masked, saturated peaks fooled the guess). Leaves θ unchanged when the fit is degenerate.
+ */
+function refitFringeTerms(
+  theta: Float64Array,
+  k: { kScale: number; kOffset: number; kVisibility: number; kPhase: number },
+  lower: ArrayLike<number>, upper: ArrayLike<number>,
+  evaluate: (out: Float64Array) => boolean,
+  y: Float64Array, sigma: Float64Array, n: number,
+): void {
+  const saved = Float64Array.from(theta);
+  const at = (scale: number, visibility: number, phase: number, out: Float64Array): boolean => {
+    theta[k.kScale] = scale; theta[k.kVisibility] = visibility; theta[k.kPhase] = phase;
+    if (k.kOffset >= 0) theta[k.kOffset] = 0;
+    return evaluate(out);
+  };
+  const base = new Float64Array(n), e = new Float64Array(n), c = new Float64Array(n), s = new Float64Array(n);
+  const ok = at(0, 0, 0, base) && at(1, 0, 0, e) && at(1, 1, 0, c) && at(1, 1, Math.PI / 2, s);
+  theta.set(saved);
+  if (!ok) return;
+  // Columns: [1 (background, when free)], e, c, s — shapes relative to the A = 0 baseline.
+  const columns: Float64Array[] = [];
+  if (k.kOffset >= 0) columns.push(new Float64Array(n).fill(1));
+  for (let i = 0; i < n; i++) { c[i] -= e[i]; s[i] -= e[i]; e[i] -= base[i]; }
+  columns.push(e, c, s);
+  const m = columns.length;
+  const normal = new Float64Array(m * m), rhs = new Float64Array(m);
+  for (let i = 0; i < n; i++) {
+    const w = 1 / (sigma[i] * sigma[i]), r = y[i] - base[i];
+    for (let a = 0; a < m; a++) {
+      const wa = w * columns[a][i];
+      rhs[a] += wa * r;
+      for (let b = a; b < m; b++) normal[a * m + b] += wa * columns[b][i];
+    }
+  }
+  for (let a = 0; a < m; a++) for (let b = 0; b < a; b++) normal[a * m + b] = normal[b * m + a];
+  const solution = solveSymmetric(normal, rhs, m);
+  if (!solution) return;
+  const [amplitude, cosTerm, sinTerm] = solution.slice(m - 3);
+  if (!(amplitude > 0)) return;
+  const visibility = Math.min(upper[k.kVisibility], Math.max(lower[k.kVisibility], Math.hypot(cosTerm, sinTerm) / amplitude));
+  let phase = Math.atan2(sinTerm, cosTerm);
+  const lo = lower[k.kPhase], hi = upper[k.kPhase];
+  if (Number.isFinite(lo) && phase < lo) phase += 2 * Math.PI * Math.ceil((lo - phase) / (2 * Math.PI));
+  if (Number.isFinite(hi) && phase > hi) phase -= 2 * Math.PI * Math.ceil((phase - hi) / (2 * Math.PI));
+  if (!(phase >= lo && phase <= hi) || !Number.isFinite(visibility)) return;
+  theta[k.kVisibility] = visibility;
+  theta[k.kPhase] = phase;
+}
+
+/** Solves the small symmetric system A·x = b by Gaussian elimination with partial pivoting; null when singular. */
+function solveSymmetric(matrix: Float64Array, rhs: Float64Array, m: number): number[] | null {
+  const a = Float64Array.from(matrix), b = Float64Array.from(rhs);
+  let largest = 0;
+  for (let i = 0; i < m; i++) largest = Math.max(largest, Math.abs(a[i * m + i]));
+  for (let col = 0; col < m; col++) {
+    let pivot = col;
+    for (let r = col + 1; r < m; r++) if (Math.abs(a[r * m + col]) > Math.abs(a[pivot * m + col])) pivot = r;
+    if (!(Math.abs(a[pivot * m + col]) > 1e-13 * largest)) return null;
+    if (pivot !== col) {
+      for (let j = 0; j < m; j++) { const t = a[col * m + j]; a[col * m + j] = a[pivot * m + j]; a[pivot * m + j] = t; }
+      const t = b[col]; b[col] = b[pivot]; b[pivot] = t;
+    }
+    for (let r = col + 1; r < m; r++) {
+      const factor = a[r * m + col] / a[col * m + col];
+      for (let j = col; j < m; j++) a[r * m + j] -= factor * a[col * m + j];
+      b[r] -= factor * b[col];
+    }
+  }
+  const x = new Array<number>(m).fill(0);
+  for (let r = m - 1; r >= 0; r--) {
+    let sum = b[r];
+    for (let j = r + 1; j < m; j++) sum -= a[r * m + j] * x[j];
+    x[r] = sum / a[r * m + r];
+  }
+  return x.every(Number.isFinite) ? x : null;
 }
 
 function strided(values: Float64Array, stride: number): Float64Array {

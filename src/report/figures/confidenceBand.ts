@@ -7,7 +7,7 @@
 import { InvalidArgumentError } from "../../errors.js";
 import type { FitResult } from "../../fit/types.js";
 import type { Model } from "../../physics/model.js";
-import { normalQuantile } from "../../stats/normal.js";
+import { normalQuantile } from "../../math/normal.js";
 
 /** A curve with its pointwise lower and upper confidence limits (model units). */
 export interface Band {

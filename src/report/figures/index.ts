@@ -10,6 +10,5 @@ export * from "./comparisonFigure.js";
 export * from "./coherenceScanFigure.js";
 export * from "./correlationFigure.js";
 export * from "./profileLikelihoodFigure.js";
-export * from "./profileCurve.js";
 export * from "./binnedResiduals.js";
 export * from "./modelDifferenceFigure.js";

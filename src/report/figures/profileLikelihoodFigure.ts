@@ -4,7 +4,8 @@
  * and 3.84 (95 %) that define the intervals (Wilks 1938).
  */
 import { InvalidArgumentError } from "../../errors.js";
-import { chiSquaredQuantile } from "../../stats/chiSquared.js";
+import type { ProfileCurve } from "../../fit/profileCurve.js";
+import { chiSquaredQuantile } from "../../math/chiSquared.js";
 import { formatQuantity } from "../formatQuantity.js";
 import { parameterLabel } from "../labels.js";
 import { choosePrefix, takesPrefix } from "../siPrefix.js";
@@ -12,20 +13,6 @@ import { plainArray, STATIC_CONFIG, withMimeBundle, type FigureSpec } from "./fi
 import { axisStyle, baseLayout, resolveSize, type FigureSize } from "./journal.js";
 import { GUIDE, INK, seriesStyle } from "./palette.js";
 
-/** One profiled parameter: values tried (SI) and the objective's rise above its minimum at each. */
-export interface ProfileCurve {
-  /** Project-wide parameter name. */
-  name: string;
-  /** SI unit symbol. */
-  unit: string;
-  values: ArrayLike<number>;
-  /** Δχ² (or 2Δ(−ln L)) at each value, ≥ 0, 0 at the best fit. */
-  deltaObjective: ArrayLike<number>;
-  /** Best-fit value (SI), drawn as a vertical guide when given. */
-  best?: number;
-  /** Quadratic (covariance) standard error (SI); the parabola Δ = ((θ−best)/se)² is drawn for comparison. */
-  uncertainty?: number;
-}
 
 /**
  * Panels side by side, one per curve (1–4). Default size: double column (180 mm) × 55 mm.

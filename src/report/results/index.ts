@@ -1,5 +1,5 @@
-// Results files and replay: re-exports only.
+// Results files: re-exports only (replay, which re-fits, is in api/).
 export * from "./base64.js";
 export * from "./arrays.js";
 export * from "./resultsDocument.js";
-export * from "./replay.js";
+export * from "./fitJson.js";

@@ -11,11 +11,16 @@ import type { FormulaSource } from "../../physics/modelSource.js";
 import type { Profile } from "../../profile.js";
 import { FRINGEKIT_VERSION } from "../version.js";
 import { decodeJson, encodeJson } from "./arrays.js";
+import { fitJson, parametersFromJson } from "./fitJson.js";
 
 /** Value of the "format" field that marks a fringekit results file. */
 export const RESULTS_FORMAT = "fringekit-results";
-/** Version of the document layout; readers refuse newer versions with a clear message. */
-export const RESULTS_FORMAT_VERSION = 1;
+/**
+ * Version of the document layout; readers refuse newer versions with a clear message.
+ * 2: each fit's result in the one JSON shape of a fit (parameters keyed by name, see fitJson);
+ * 1: parameters as a list (still read).
+ */
+export const RESULTS_FORMAT_VERSION = 2;
 
 /** What a results file holds: one fit, a comparison of fits, or a coherence-scan fit. */
 export type ResultsKind = "fit" | "comparison" | "scan";
@@ -157,9 +162,17 @@ export function scanDocument(scan: Profile, fit: FitToRecord, options: DocumentO
   return resultsDocument("scan", scan, [fit], options);
 }
 
-/** The JSON text of a results document (2-space indent, typed arrays as base64, exact numbers). */
+/**
+ * A results document as JSON data: each fit's result in the one JSON shape of a fit (full form,
+ * see fitJson), typed arrays as base64, exact numbers. What Fit.toJSON returns.
+ */
+export function resultsJson(doc: ResultsDocument): unknown {
+  return encodeJson({ ...doc, fits: doc.fits.map((f) => ({ ...f, result: fitJson(f.result, "full") })) });
+}
+
+/** The JSON text of a results document (2-space indent; see resultsJson). */
 export function stringifyResults(doc: ResultsDocument): string {
-  return `${JSON.stringify(encodeJson(doc), null, 2)}\n`;
+  return `${JSON.stringify(resultsJson(doc), null, 2)}\n`;
 }
 
 /**
@@ -191,9 +204,18 @@ export function parseResults(text: string, source = "results file"): ResultsDocu
   return doc;
 }
 
-/** Files written before the rename call the standard uncertainty `stderr`; read it as `uncertainty`. */
+/**
+ * Results in the one JSON shape (version 2) key their parameters by name: back to the
+ * FitResult's list. Files written before the rename call the standard uncertainty `stderr`;
+ * read it as `uncertainty`.
+ */
 function upgradeOldFields(doc: ResultsDocument): void {
   for (const fit of Array.isArray(doc.fits) ? doc.fits : []) {
+    const result = fit?.result as unknown as Record<string, unknown> | undefined;
+    if (result && typeof result === "object" && result.parameters === undefined && result.params && typeof result.params === "object" && !Array.isArray(result.params)) {
+      result.parameters = parametersFromJson(result.params as Record<string, Record<string, never>>);
+      delete result.params;
+    }
     for (const p of Array.isArray(fit?.result?.parameters) ? fit.result.parameters : []) {
       const old = p as unknown as { stderr?: number; uncertainty?: number };
       if (old.uncertainty === undefined && typeof old.stderr === "number") {

@@ -3,7 +3,7 @@
 import { fitProfile } from "../../../src/fit/fitProfile.js";
 import { getModel } from "../../../src/physics/index.js";
 import { fitOptionsFromParams } from "../../shared/fitRequest.js";
-import { fitSummary } from "../../shared/fitSummary.js";
+import { fitJson } from "../../../src/report/results/fitJson.js";
 import type { LocalFitRequest } from "../explorerView.js";
 
 addEventListener("message", (event: MessageEvent<LocalFitRequest>) => {
@@ -26,7 +26,7 @@ addEventListener("message", (event: MessageEvent<LocalFitRequest>) => {
     );
     const params = structuredClone(request.params);
     for (const p of result.parameters) if (params[p.name]) params[p.name]!.value = p.value;
-    postMessage({ type: "done", summary: fitSummary(result), curve: result.model, params });
+    postMessage({ type: "done", summary: fitJson(result), curve: result.model, params });
   } catch (error) {
     postMessage({ type: "error", message: error instanceof Error ? error.message : String(error) });
   }

@@ -4,14 +4,14 @@
  * does not match the one recorded. This is the logic behind `fringekit replay RESULT.json
  * [--data FILE]`; reading files and computing the hash happen at the edge (io, cli).
  */
-import { DataError, InvalidArgumentError } from "../../errors.js";
-import { fitProfile } from "../../fit/fitProfile.js";
-import { rebuildModel } from "../../fit/fitSource.js";
-import type { FitOptions, FitResult } from "../../fit/types.js";
-import type { Model } from "../../physics/model.js";
-import { getModel } from "../../physics/registry.js";
-import type { Profile } from "../../profile.js";
-import { embeddedProfile, type ResultsDocument } from "./resultsDocument.js";
+import { DataError, InvalidArgumentError } from "../errors.js";
+import { fitProfile } from "../fit/fitProfile.js";
+import { rebuildModel } from "../fit/fitSource.js";
+import type { FitOptions, FitResult } from "../fit/types.js";
+import type { Model } from "../physics/model.js";
+import { getModel } from "../physics/registry.js";
+import type { Profile } from "../profile.js";
+import { embeddedProfile, type ResultsDocument } from "../report/results/resultsDocument.js";
 
 /** The fitting machinery replay calls: the registry's getModel and the fitter's fitProfile. */
 export interface ReplayEngine {

@@ -1,16 +1,30 @@
 /**
- * The profile-likelihood curve of one parameter, for profileLikelihoodFigure: the parameter is
+ * The profile-likelihood curve of one parameter (drawn by report/figures/profileLikelihoodFigure): the parameter is
  * held at each value of a grid around its best fit while every other free parameter is
  * re-fitted by fitProfile; the rise of the objective, scaled like the fitter's own profile
  * intervals, is Δχ² (asymptotically χ²₁ distributed, Wilks 1938).
  */
-import { InvalidArgumentError } from "../../errors.js";
-import { fitProfile } from "../../fit/fitProfile.js";
-import { objectiveScale, optionsFromResult } from "../../fit/refit.js";
-import type { FitOptions, FitResult } from "../../fit/types.js";
-import type { Model } from "../../physics/model.js";
-import type { Profile } from "../../profile.js";
-import type { ProfileCurve } from "./profileLikelihoodFigure.js";
+import { InvalidArgumentError } from "../errors.js";
+import type { Model } from "../physics/model.js";
+import type { Profile } from "../profile.js";
+import { fitProfile } from "./fitProfile.js";
+import { objectiveScale, optionsFromResult } from "./refit.js";
+import type { FitOptions, FitResult } from "./types.js";
+
+/** One profiled parameter: values tried (SI) and the objective's rise above its minimum at each. */
+export interface ProfileCurve {
+  /** Project-wide parameter name. */
+  name: string;
+  /** SI unit symbol. */
+  unit: string;
+  values: ArrayLike<number>;
+  /** Δχ² (or 2Δ(−ln L)) at each value, ≥ 0, 0 at the best fit. */
+  deltaObjective: ArrayLike<number>;
+  /** Best-fit value (SI), drawn as a vertical guide when given. */
+  best?: number;
+  /** Quadratic (covariance) standard error (SI); the parabola Δ = ((θ−best)/se)² is drawn for comparison. */
+  uncertainty?: number;
+}
 
 /** Options of profileCurve: grid size and span (standard errors), extra fit options. */
 export interface ProfileCurveOptions {
