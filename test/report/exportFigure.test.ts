@@ -160,4 +160,23 @@ describe.skipIf(!haveFonts)("exportFitReport(profile, result, base, options)", (
       rmSync(dir, { recursive: true, force: true });
     }
   });
+
+  it("exportComparisonReport(profile, fits, base) writes the comparison figure, its table and a results file with every fit", async () => {
+    const { parseResults } = await import("../../src/report/results/resultsDocument.js");
+    const { exportComparisonReport } = await import("../../kernel-ext/figures/exportReport.js");
+    const { comparisonExample } = await import("./figureExamples.js");
+    const dir = mkdtempSync(path.join(tmpdir(), "fringekit-report-"));
+    try {
+      const { profile, fits } = comparisonExample();
+      const out = await exportComparisonReport(profile, fits, path.join(dir, "cmp"), { formats: ["pdf"] });
+      expect(readdirSync(dir).sort()).toEqual(["cmp-table.tex", "cmp.html", "cmp.json", "cmp.md", "cmp.pdf", "cmp.tex"]);
+      expect(readFileSync(path.join(dir, "cmp.pdf")).subarray(0, 5).toString("latin1")).toBe("%PDF-");
+      // The table names both models it was given, and the results file holds both fits.
+      const markdown = readFileSync(out.markdown, "utf8").replace(/\\(.)/g, "$1"); // Markdown escapes (CommonMark §2.4) removed
+      for (const { label } of fits) expect(markdown).toContain(label);
+      expect(parseResults(readFileSync(out.results, "utf8")).fits.map((f: { result: unknown }) => f.result)).toEqual(fits.map((f) => f.result));
+    } finally {
+      rmSync(dir, { recursive: true, force: true });
+    }
+  });
 });
