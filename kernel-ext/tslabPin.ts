@@ -117,11 +117,34 @@ function checkShape(t: TslabInternals): void {
 }
 
 /**
- * Makes tslab's type-checker resolve packages through package.json "exports" (TypeScript's
- * "bundler" resolution) instead of Node10 resolution, so cells can import `fringekit`,
- * `fringekit/kernel` and the package from inside its own folder (self-reference). tslab's
- * converter reads compiler options only through createWatchCompilerHost, so the module it
- * loads is swapped, before tslab loads it, for a view that adjusts those options.
+ * Global type packages of the kernel's program: Node's only. Without this TypeScript puts every
+ * package under each `node_modules/@types` of the notebook folder into the program (in a
+ * development checkout ~45 packages, 4.5 MB of declarations besides @types/node), and parsing
+ * them was most of the kernel's start. A cell still gets a package's types by importing it
+ * (`import $ from "jquery"` finds @types/jquery); a global-only package is added with
+ * `/// <reference types="NAME" />` at the top of a cell.
+ */
+export const KERNEL_GLOBAL_TYPES = ["node"];
+
+/**
+ * Folders whose contents the kernel's type-checker does not watch: node_modules. TypeScript
+ * watches them for packages that appear after a failed import; on Linux it emulates a
+ * recursive watch by listing and watching every folder of the tree at start (~3000 folders,
+ * ~0.75 s in a development checkout). tslab 1.0.22 cannot use those events anyway: when one
+ * fires, its converter throws "Unexpected pending rebuildTimer" on the next cell, so a package
+ * installed during a session needs a kernel restart either way. Files the program has read
+ * (declarations, local modules) keep their own file watchers.
+ */
+export const KERNEL_WATCH_EXCLUDE = ["**/node_modules"];
+
+/**
+ * Adjusts the compiler options of tslab's type-checker: packages resolve through package.json
+ * "exports" (TypeScript's "bundler" resolution) instead of Node10 resolution, so cells can import
+ * `fringekit`, `fringekit/kernel` and the package from inside its own folder (self-reference);
+ * only Node's global types are loaded (KERNEL_GLOBAL_TYPES) and node_modules folders are not
+ * watched (KERNEL_WATCH_EXCLUDE). tslab's converter reads compiler options only through
+ * createWatchCompilerHost, so the module it loads is swapped, before tslab loads it, for a view
+ * that adjusts those options.
  */
 function useBundlerResolution(require: NodeJS.Require, typescriptPath: string): void {
   const real = require(typescriptPath) as Record<string, unknown> & {
@@ -131,8 +154,14 @@ function useBundlerResolution(require: NodeJS.Require, typescriptPath: string): 
   const cached = require.cache[typescriptPath];
   if (!cached) throw new TslabPinError("TypeScript for tslab did not load as a CommonJS module");
   if ((real as Record<symbol, unknown>)[BUNDLER_VIEW]) return;
-  const createWatchCompilerHost = (rootFiles: unknown, compilerOptions: Record<string, unknown>, ...rest: unknown[]) =>
-    real.createWatchCompilerHost(rootFiles, { ...compilerOptions, moduleResolution: real.ModuleResolutionKind.Bundler }, ...rest);
+  // tslab passes (rootFiles, options, system, createProgram, reportDiagnostic, reportWatchStatus).
+  const createWatchCompilerHost = (rootFiles: unknown, compilerOptions: Record<string, unknown>, ...rest: unknown[]) => {
+    const options = { ...compilerOptions, moduleResolution: real.ModuleResolutionKind.Bundler, types: KERNEL_GLOBAL_TYPES };
+    const [system, createProgram, reportDiagnostic, reportWatchStatus] = rest;
+    return real.createWatchCompilerHost(rootFiles, options, system, createProgram, reportDiagnostic, reportWatchStatus, undefined, {
+      excludeDirectories: KERNEL_WATCH_EXCLUDE,
+    });
+  };
   cached.exports = new Proxy(real, {
     get: (target, property) => {
       if (property === "createWatchCompilerHost") return createWatchCompilerHost;
