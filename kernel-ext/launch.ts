@@ -6,12 +6,16 @@
 import { readFileSync } from "node:fs";
 import { FringekitKernel, type TslabServer } from "./server/kernel.js";
 import { loadTslab, type ExecutorConsole } from "./tslabPin.js";
+import { cacheDir } from "./codeCache.js";
 import { installRuntime } from "./runtime.js";
 import { registerWidgetControl } from "./widget/registry.js";
 import type { SendingSocket } from "./server/wire.js";
 
 /** Messages iopub may queue per subscriber before dropping (bursts of output stay whole). */
 const IOPUB_HIGH_WATER_MARK = 100_000;
+
+/** Delay before writing TypeScript's code cache (only when a start had none), ms. */
+const CODE_CACHE_DELAY_MS = 3000;
 
 const realStderr = process.stderr.write.bind(process.stderr);
 const log = (line: string) => void realStderr(`[fringekit kernel] ${line}\n`);
@@ -41,7 +45,11 @@ function routeStdio(kernel: FringekitKernel): void {
 
 /** Starts the kernel for the Jupyter connection file `configPath`. */
 export function launch(configPath: string): void {
-  const tslab = loadTslab(import.meta.url, { resolvePackageExports: true });
+  const tslab = loadTslab(import.meta.url, {
+    resolvePackageExports: true,
+    globalTypes: process.env.FRINGEKIT_KERNEL_TYPES,
+    codeCacheDir: cacheDir(),
+  });
   const kernel = new FringekitKernel(tslab, log, { implementation: "fringekit", implementationVersion: packageVersion() });
 
   const createExecutor = tslab.executor.createExecutor;
@@ -67,6 +75,9 @@ export function launch(configPath: string): void {
   // tslab's own SIGINT handler interrupts an awaiting cell; this one aborts interruptSignal().
   process.on("SIGINT", () => kernel.interrupt());
   tslab.main.startKernel({ configPath, enableFindLocal: false, jsKernel: false, globalVersion: tslab.version });
+  // Once, when there was no usable cache: after start and a first cell have compiled the
+  // type-checker's hot functions, so the next start finds them compiled (~3 MB file).
+  setTimeout(() => tslab.saveCodeCache(), CODE_CACHE_DELAY_MS).unref();
 }
 
 const configPath = process.argv[2];

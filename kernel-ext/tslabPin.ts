@@ -7,6 +7,7 @@ import { createHash } from "node:crypto";
 import { readFileSync } from "node:fs";
 import { createRequire } from "node:module";
 import path from "node:path";
+import { requireWithCodeCache } from "./codeCache.js";
 
 /** The only tslab version the extension supports (package.json pins it exactly). */
 export const TSLAB_VERSION = "1.0.22";
@@ -46,6 +47,8 @@ export interface TslabInternals {
   executor: { createExecutor(rootDir: string, convs: unknown, console: ExecutorConsole): TslabExecutor };
   converter: { isCompleteCode(code: string): { completed: boolean; indent: string } };
   typescript: Record<string, unknown> & { version: string };
+  /** Writes TypeScript's V8 code cache when this start had none (see codeCache.ts); else no-op. */
+  saveCodeCache(): void;
 }
 
 /** Thrown when the installed tslab is not the pinned one; names what differs and what to do. */
@@ -63,8 +66,11 @@ export class TslabPinError extends Error {
  * Resolves tslab from this package, verifies version, file hashes and the shape of the
  * internals, and returns them. Throws `TslabPinError` on any mismatch.
  * @param fromUrl module URL to resolve tslab from (defaults to this file's URL)
+ * @param options resolvePackageExports: adjust the kernel's compiler options (the launcher does);
+ *   globalTypes: the FRINGEKIT_KERNEL_TYPES setting (see kernelGlobalTypes); codeCacheDir: load
+ *   TypeScript through a V8 code cache kept in that folder (see codeCache.ts)
  */
-export function loadTslab(fromUrl: string = import.meta.url, options: { resolvePackageExports?: boolean } = {}): TslabInternals {
+export function loadTslab(fromUrl: string = import.meta.url, options: { resolvePackageExports?: boolean; globalTypes?: string; codeCacheDir?: string } = {}): TslabInternals {
   const require = createRequire(fromUrl);
   let packageJson: string;
   try {
@@ -80,7 +86,8 @@ export function loadTslab(fromUrl: string = import.meta.url, options: { resolveP
     if (got !== want) throw new TslabPinError(`tslab's ${file} differs from the released ${TSLAB_VERSION} (sha256 ${got})`);
   }
   const typescriptPath = require.resolve("@tslab/typescript-for-tslab", { paths: [root] });
-  if (options.resolvePackageExports) useBundlerResolution(require, typescriptPath);
+  const cached = options.codeCacheDir ? requireWithCodeCache(typescriptPath, options.codeCacheDir) : undefined;
+  if (options.resolvePackageExports) useBundlerResolution(require, typescriptPath, kernelGlobalTypes(options.globalTypes));
   const internals: TslabInternals = {
     root,
     version,
@@ -89,6 +96,7 @@ export function loadTslab(fromUrl: string = import.meta.url, options: { resolveP
     executor: require(path.join(root, "dist/executor.js")),
     converter: require(path.join(root, "dist/converter.js")),
     typescript: require(typescriptPath),
+    saveCodeCache: () => void cached?.saveCache(),
   };
   checkShape(internals);
   return internals;
@@ -117,13 +125,42 @@ function checkShape(t: TslabInternals): void {
 }
 
 /**
- * Makes tslab's type-checker resolve packages through package.json "exports" (TypeScript's
- * "bundler" resolution) instead of Node10 resolution, so cells can import `fringekit`,
- * `fringekit/kernel` and the package from inside its own folder (self-reference). tslab's
- * converter reads compiler options only through createWatchCompilerHost, so the module it
- * loads is swapped, before tslab loads it, for a view that adjusts those options.
+ * Global type packages of the kernel's program (TypeScript's `types` option): Node's, plus the
+ * names listed in the environment variable FRINGEKIT_KERNEL_TYPES (comma-separated, e.g.
+ * `mocha,jquery`; `*` restores TypeScript's default of every package under node_modules/@types).
+ * By default TypeScript puts every @types package of the notebook folder into the program (in a
+ * development checkout ~45 packages, 4.5 MB of declarations besides @types/node's 2.2 MB), and
+ * parsing them was most of the kernel's start. A cell still gets a package's types by importing
+ * it (`import $ from "jquery"` finds @types/jquery); only globals of packages it does not import
+ * need the variable. `undefined` means TypeScript's default.
  */
-function useBundlerResolution(require: NodeJS.Require, typescriptPath: string): void {
+export function kernelGlobalTypes(setting: string | undefined): string[] | undefined {
+  const extra = (setting ?? "").split(",").map((name) => name.trim()).filter((name) => name !== "");
+  if (extra.includes("*")) return undefined;
+  return [...new Set(["node", ...extra])];
+}
+
+/**
+ * Folders whose contents the kernel's type-checker does not watch: node_modules. TypeScript
+ * watches them for packages that appear after a failed import; on Linux it emulates a
+ * recursive watch by listing and watching every folder of the tree at start (~3000 folders,
+ * ~0.75 s in a development checkout). tslab 1.0.22 cannot use those events anyway: when one
+ * fires, its converter throws "Unexpected pending rebuildTimer" on the next cell, so a package
+ * installed during a session needs a kernel restart either way. Files the program has read
+ * (declarations, local modules) keep their own file watchers.
+ */
+export const KERNEL_WATCH_EXCLUDE = ["**/node_modules"];
+
+/**
+ * Adjusts the compiler options of tslab's type-checker: packages resolve through package.json
+ * "exports" (TypeScript's "bundler" resolution) instead of Node10 resolution, so cells can import
+ * `fringekit`, `fringekit/kernel` and the package from inside its own folder (self-reference);
+ * only the global types of kernelGlobalTypes() are loaded and node_modules folders are not
+ * watched (KERNEL_WATCH_EXCLUDE). tslab's converter reads compiler options only through
+ * createWatchCompilerHost, so the module it loads is swapped, before tslab loads it, for a view
+ * that adjusts those options.
+ */
+function useBundlerResolution(require: NodeJS.Require, typescriptPath: string, types: string[] | undefined): void {
   const real = require(typescriptPath) as Record<string, unknown> & {
     createWatchCompilerHost: (...args: unknown[]) => unknown;
     ModuleResolutionKind: { Bundler: number };
@@ -131,8 +168,15 @@ function useBundlerResolution(require: NodeJS.Require, typescriptPath: string): 
   const cached = require.cache[typescriptPath];
   if (!cached) throw new TslabPinError("TypeScript for tslab did not load as a CommonJS module");
   if ((real as Record<symbol, unknown>)[BUNDLER_VIEW]) return;
-  const createWatchCompilerHost = (rootFiles: unknown, compilerOptions: Record<string, unknown>, ...rest: unknown[]) =>
-    real.createWatchCompilerHost(rootFiles, { ...compilerOptions, moduleResolution: real.ModuleResolutionKind.Bundler }, ...rest);
+  // tslab passes (rootFiles, options, system, createProgram, reportDiagnostic, reportWatchStatus).
+  const createWatchCompilerHost = (rootFiles: unknown, compilerOptions: Record<string, unknown>, ...rest: unknown[]) => {
+    const options: Record<string, unknown> = { ...compilerOptions, moduleResolution: real.ModuleResolutionKind.Bundler };
+    if (types) options.types = types;
+    const [system, createProgram, reportDiagnostic, reportWatchStatus] = rest;
+    return real.createWatchCompilerHost(rootFiles, options, system, createProgram, reportDiagnostic, reportWatchStatus, undefined, {
+      excludeDirectories: KERNEL_WATCH_EXCLUDE,
+    });
+  };
   cached.exports = new Proxy(real, {
     get: (target, property) => {
       if (property === "createWatchCompilerHost") return createWatchCompilerHost;

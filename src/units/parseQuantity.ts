@@ -3,7 +3,6 @@
  * into SI numbers, with fringekit's own unit tables (unitTable.ts), so reading a unit never
  * loads a general unit library.
  */
-import type { Unit } from "mathjs";
 import { InvalidArgumentError } from "../errors.js";
 import { lookupUnitExpression } from "./unitTable.js";
 
@@ -50,8 +49,12 @@ export function unitFactor(text: string, kind: QuantityKind): number | undefined
 /** mathjs's order of base dimensions in Unit.dimensions (mass, length, time, current, temperature, luminous intensity, amount, angle, bit). */
 const MATHJS_DIMENSION_INDEX: Record<"length" | "angle", number> = { length: 1, angle: 7 };
 
-/** True when a mathjs Unit's dimension matches the kind (for callers that already hold a mathjs Unit). */
-export function hasKind(parsed: Unit, kind: QuantityKind): boolean {
+/**
+ * True when a mathjs Unit's dimension matches the kind (for callers that already hold a mathjs
+ * Unit). Typed by the one field it reads, so fringekit's declarations do not pull in mathjs's
+ * (~250 KB that every cell importing "fringekit" would otherwise type-check).
+ */
+export function hasKind(parsed: { readonly dimensions: readonly number[] }, kind: QuantityKind): boolean {
   const dims = parsed.dimensions;
   if (kind === "dimensionless") return dims.every((d) => d === 0);
   const at = MATHJS_DIMENSION_INDEX[kind];
