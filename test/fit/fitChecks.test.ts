@@ -20,6 +20,17 @@ def two_slit(x, A, B, d, a, V, lam, L, phi=0.0):
     return B + A * np.sinc(beta / np.pi) ** 2 * (1 + V * np.cos(2 * np.pi * d * s / lam + phi))
 `;
 
+/** Far-field N-slit intensity, written out (Born & Wolf §8.6.1): sinc² envelope × grating factor. */
+const N_SLIT_PY = `
+import numpy as np
+def n_slit(x, A, B, d, a, N, lam, L):
+    s = x / np.sqrt(x * x + L * L)
+    phi = np.pi * d * s / lam
+    with np.errstate(invalid="ignore", divide="ignore"):
+        grating = np.where(np.abs(np.sin(phi)) < 1e-12, 1.0, (np.sin(N * phi) / (N * np.sin(phi))) ** 2)
+    return B + A * np.sinc(a * s / lam) ** 2 * grating
+`;
+
 interface Simulated { x: number[]; y: number[] }
 
 function profileOf(sim: Simulated): Profile {
@@ -95,15 +106,9 @@ print(json.dumps({"lines": lines, "beam": {"x": x.tolist(), "y": beam.tolist(), 
   }, 60_000);
 
   maybe("fitProfile(saturated three-slit line, masked, n-slit) finds separation and width and sees the fringe", () => {
-    const sim = python<Simulated & { clipped: number }>(`
-import numpy as np
+    const sim = python<Simulated & { clipped: number }>(N_SLIT_PY + `
 x = (np.arange(4096) - 2048) * 5.5e-6
-lam, L, d, a, N = 632.8e-9, 1.0, 0.4e-3, 0.09e-3, 3
-s = x / np.sqrt(x * x + L * L)
-phi = np.pi * d * s / lam
-with np.errstate(invalid="ignore", divide="ignore"):
-    grating = np.where(np.abs(np.sin(phi)) < 1e-12, 1.0, (np.sin(N * phi) / (N * np.sin(phi))) ** 2)
-y = np.minimum(np.random.default_rng(31).poisson(60.0 + 8000.0 * np.sinc(a * s / lam) ** 2 * grating), 4095)   # Born & Wolf §8.6.1, 12-bit
+y = np.minimum(np.random.default_rng(31).poisson(n_slit(x, 8000.0, 60.0, 0.4e-3, 0.09e-3, 3, 632.8e-9, 1.0)), 4095)   # 12-bit
 print(json.dumps({"x": x.tolist(), "y": y.tolist(), "clipped": int((y == 4095).sum())}))
 `, {});
     expect(sim.clipped).toBeGreaterThan(100);
@@ -138,15 +143,9 @@ print(json.dumps({"none": {"x": x.tolist(), "y": rng.poisson(beam).tolist()},
   }, 60_000);
 
   maybe("fitProfile(three-slit data, two-slit) is a poor fit: 'the model does not describe these data'; p-value as SciPy's chi2.sf", () => {
-    const sim = python<Simulated>(`
-import numpy as np
+    const sim = python<Simulated>(N_SLIT_PY + `
 x = (np.arange(2048) - 1024) * 5.5e-6
-lam, L, d, a, N = 632.8e-9, 1.0, 0.5e-3, 0.1e-3, 3
-s = x / np.sqrt(x * x + L * L)
-phi = np.pi * d * s / lam
-with np.errstate(invalid="ignore", divide="ignore"):
-    grating = np.where(np.abs(np.sin(phi)) < 1e-12, 1.0, (np.sin(N * phi) / (N * np.sin(phi))) ** 2)
-y = 40.0 + 3000.0 * np.sinc(a * s / lam) ** 2 * grating   # N-slit intensity, Born & Wolf §8.6.1
+y = n_slit(x, 3000.0, 40.0, 0.5e-3, 0.1e-3, 3, 632.8e-9, 1.0)
 print(json.dumps({"x": x.tolist(), "y": np.random.default_rng(8).poisson(y).tolist()}))
 `, {});
     const fit = fitProfile(profileOf(sim), getModel("two-slit"), { fix: GEOMETRY });

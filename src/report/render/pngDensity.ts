@@ -41,6 +41,11 @@ export function setPngDpi(png: Uint8Array, dpi: number): Uint8Array {
     if (type === "IHDR") parts.push(chunk);
     offset = end;
   }
+  return concatBytes(parts);
+}
+
+/** The byte arrays one after another in a new array (PNG signature and chunks into a file). */
+export function concatBytes(parts: readonly Uint8Array[]): Uint8Array {
   const out = new Uint8Array(parts.reduce((n, p) => n + p.length, 0));
   let at = 0;
   for (const p of parts) {
