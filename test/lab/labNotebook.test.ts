@@ -5,8 +5,7 @@
 // widgets are checked; a keyboard slider move redraws; Fit updates the view and `ex.result` in
 // the kernel; the saved notebook, opened again, restores the widgets from its saved state. Then
 // the demo notebook 01-first-fit.ipynb runs the same way.
-import { spawn, spawnSync, type ChildProcess } from "node:child_process";
-import { randomBytes } from "node:crypto";
+import { spawnSync } from "node:child_process";
 import { cpSync, existsSync, mkdirSync, mkdtempSync, readFileSync, rmSync, symlinkSync, writeFileSync } from "node:fs";
 import { createServer, type Server } from "node:http";
 import type { AddressInfo } from "node:net";
@@ -15,8 +14,9 @@ import path from "node:path";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { buildLabExtension, labExtensionDir } from "../../widgets/build.js";
 import { MODULE_NAME } from "../../widgets/src/version.js";
-import { installTempKernel, python, repoRoot, type KernelPrefix } from "../kernel/helpers.js";
+import { python, repoRoot } from "../kernel/helpers.js";
 import { hasChromium, launchBrowser, type Browser } from "../widgets/browser.js";
+import { startJupyterServer, stopTestServers, type TestJupyter } from "../widgets/jupyterServer.js";
 import { buildLabPage } from "./buildPage.js";
 
 const outputDir = path.join(repoRoot, "test/lab/__output__");
@@ -82,23 +82,12 @@ async function snapshotLabExtension(dest: string): Promise<string> {
   }
 }
 
-async function freePort(): Promise<number> {
-  const server = createServer();
-  await new Promise<void>((resolve) => server.listen(0, "127.0.0.1", resolve));
-  const { port } = server.address() as AddressInfo;
-  await new Promise((resolve) => server.close(resolve));
-  return port;
-}
-
 describe.skipIf(why)("JupyterLab notebook component + jupyterlab-manager + fringekit's prebuilt extension", () => {
-  let kernel: KernelPrefix | null = null;
   let pageServer: Server | null = null;
-  let jupyter: ChildProcess | null = null;
+  let jupyter: TestJupyter | null = null;
   let browser: Browser | null = null;
   let tmp = "";
-  let jupyterLog = "";
   let pageOrigin = "";
-  let token = "";
   let extensionDir = "";
   const pageErrors: string[] = [];
 
@@ -142,28 +131,8 @@ describe.skipIf(why)("JupyterLab notebook component + jupyterlab-manager + fring
     await new Promise<void>((resolve) => pageServer!.listen(0, "127.0.0.1", resolve));
     pageOrigin = `http://127.0.0.1:${(pageServer.address() as AddressInfo).port}`;
 
-    kernel = installTempKernel();
-    const port = await freePort();
-    token = randomBytes(16).toString("hex");
-    for (const d of ["config", "data", "runtime"]) mkdirSync(path.join(tmp, d));
-    jupyter = spawn(python, ["-m", "jupyter_server", "--no-browser", "--ServerApp.ip=127.0.0.1", `--ServerApp.port=${port}`,
-      "--ServerApp.port_retries=0", `--ServerApp.token=${token}`, `--ServerApp.allow_origin=${pageOrigin}`,
-      `--ServerApp.root_dir=${root}`, ...(process.getuid?.() === 0 ? ["--allow-root"] : [])], {
-      cwd: root,
-      env: { ...process.env, JUPYTER_PATH: kernel.jupyterPath, JUPYTER_CONFIG_DIR: path.join(tmp, "config"),
-        JUPYTER_DATA_DIR: path.join(tmp, "data"), JUPYTER_RUNTIME_DIR: path.join(tmp, "runtime") },
-      stdio: ["ignore", "pipe", "pipe"],
-    });
-    jupyter.stdout!.on("data", (d) => (jupyterLog += d));
-    jupyter.stderr!.on("data", (d) => (jupyterLog += d));
-    const baseUrl = `http://127.0.0.1:${port}/`;
-    for (let i = 0; ; i++) {
-      if (jupyter.exitCode !== null) throw new Error(`jupyter-server exited:\n${jupyterLog.slice(-3000)}`);
-      const ok = await fetch(`${baseUrl}api/status`, { headers: { Authorization: `token ${token}` } }).then((r) => r.ok, () => false);
-      if (ok) break;
-      if (i > 240) throw new Error(`jupyter-server did not answer within 60 s:\n${jupyterLog.slice(-3000)}`);
-      await new Promise((r) => setTimeout(r, 250));
-    }
+    jupyter = await startJupyterServer({ root, tmp, allowOrigin: pageOrigin });
+    const { baseUrl, token } = jupyter;
 
     browser = await launchBrowser(1280, 1000);
     browser.page.on("pageerror", (e) => pageErrors.push(e.message));
@@ -176,14 +145,7 @@ describe.skipIf(why)("JupyterLab notebook component + jupyterlab-manager + fring
       await browser?.page.evaluate("labTest.close()").catch(() => undefined);
       await browser?.close();
     } finally {
-      if (jupyter && jupyter.exitCode === null) {
-        jupyter.kill("SIGTERM");
-        await new Promise((r) => setTimeout(r, 1500));
-        if (jupyter.exitCode === null) jupyter.kill("SIGKILL");
-      }
-      await new Promise((r) => (pageServer ? pageServer.close(r) : r(undefined)));
-      kernel?.dispose();
-      if (tmp) rmSync(tmp, { recursive: true, force: true });
+      await stopTestServers({ jupyter, pageServer, tmp });
     }
   });
 

@@ -1,9 +1,8 @@
 // End to end: Debian's jupyter-server running the fringekit kernel, a page with
 // @jupyterlab/services and the ipywidgets HTML manager in headless Chromium. Cells create the
 // explorer; the test sees it render, moves a slider, presses Fit and reads the result from a cell.
-import { spawn, spawnSync, type ChildProcess } from "node:child_process";
-import { randomBytes } from "node:crypto";
-import { existsSync, mkdirSync, mkdtempSync, readFileSync, rmSync } from "node:fs";
+import { spawnSync } from "node:child_process";
+import { existsSync, mkdirSync, mkdtempSync, readFileSync } from "node:fs";
 import { createServer, type Server } from "node:http";
 import type { AddressInfo } from "node:net";
 import os from "node:os";
@@ -11,8 +10,9 @@ import path from "node:path";
 import { fileURLToPath } from "node:url";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { buildWidgetBundles, distDir } from "../../widgets/build.js";
-import { installTempKernel, python, repoRoot, type KernelPrefix } from "../kernel/helpers.js";
+import { python, repoRoot } from "../kernel/helpers.js";
 import { hasChromium, launchBrowser, type Browser } from "./browser.js";
+import { startJupyterServer, stopTestServers, type TestJupyter } from "./jupyterServer.js";
 
 const here = path.dirname(fileURLToPath(import.meta.url));
 const outputDir = path.join(here, "__output__");
@@ -28,35 +28,11 @@ const why = missing();
 if (why) console.warn(`test/widgets/live: skipped, ${why}`);
 const run = why ? describe.skip : describe;
 
-async function freePort(): Promise<number> {
-  const server = createServer();
-  await new Promise<void>((resolve) => server.listen(0, "127.0.0.1", resolve));
-  const { port } = server.address() as AddressInfo;
-  await new Promise((resolve) => server.close(resolve));
-  return port;
-}
-
-async function waitForServer(url: string, token: string, child: ChildProcess, log: () => string): Promise<void> {
-  for (let i = 0; i < 240; i++) {
-    if (child.exitCode !== null) throw new Error(`jupyter-server exited with ${child.exitCode}:\n${log()}`);
-    try {
-      const response = await fetch(`${url}api/status`, { headers: { Authorization: `token ${token}` } });
-      if (response.ok) return;
-    } catch {
-      // not listening yet
-    }
-    await new Promise((r) => setTimeout(r, 250));
-  }
-  throw new Error(`jupyter-server did not answer within 60 s:\n${log()}`);
-}
-
 run("live notebook: explorer in a real kernel and browser", () => {
-  let kernel: KernelPrefix | null = null;
   let pageServer: Server | null = null;
-  let jupyter: ChildProcess | null = null;
+  let jupyter: TestJupyter | null = null;
   let browser: Browser | null = null;
   let tmp = "";
-  let jupyterLog = "";
   const pageErrors: string[] = [];
 
   beforeAll(async () => {
@@ -74,22 +50,8 @@ run("live notebook: explorer in a real kernel and browser", () => {
     await new Promise<void>((resolve) => pageServer!.listen(0, "127.0.0.1", resolve));
     const pageOrigin = `http://127.0.0.1:${(pageServer.address() as AddressInfo).port}`;
 
-    kernel = installTempKernel();
-    const port = await freePort();
-    const token = randomBytes(16).toString("hex");
-    for (const d of ["config", "data", "runtime"]) mkdirSync(path.join(tmp, d));
-    jupyter = spawn(python, ["-m", "jupyter_server", "--no-browser", "--ServerApp.ip=127.0.0.1", `--ServerApp.port=${port}`,
-      "--ServerApp.port_retries=0", `--ServerApp.token=${token}`, `--ServerApp.allow_origin=${pageOrigin}`,
-      `--ServerApp.root_dir=${repoRoot}`, ...(process.getuid?.() === 0 ? ["--allow-root"] : [])], {
-      cwd: repoRoot,
-      env: { ...process.env, JUPYTER_PATH: kernel.jupyterPath, JUPYTER_CONFIG_DIR: path.join(tmp, "config"),
-        JUPYTER_DATA_DIR: path.join(tmp, "data"), JUPYTER_RUNTIME_DIR: path.join(tmp, "runtime") },
-      stdio: ["ignore", "pipe", "pipe"],
-    });
-    jupyter.stdout!.on("data", (d) => (jupyterLog += d));
-    jupyter.stderr!.on("data", (d) => (jupyterLog += d));
-    const baseUrl = `http://127.0.0.1:${port}/`;
-    await waitForServer(baseUrl, token, jupyter, () => jupyterLog.slice(-3000));
+    jupyter = await startJupyterServer({ root: repoRoot, tmp, allowOrigin: pageOrigin });
+    const { baseUrl, token } = jupyter;
 
     browser = await launchBrowser(1280, 800);
     browser.page.on("pageerror", (e) => pageErrors.push(e.message));
@@ -103,14 +65,7 @@ run("live notebook: explorer in a real kernel and browser", () => {
       await browser?.page.evaluate("live.shutdown()").catch(() => undefined);
       await browser?.close();
     } finally {
-      if (jupyter && jupyter.exitCode === null) {
-        jupyter.kill("SIGTERM");
-        await new Promise((r) => setTimeout(r, 1500));
-        if (jupyter.exitCode === null) jupyter.kill("SIGKILL");
-      }
-      await new Promise((r) => (pageServer ? pageServer.close(r) : r(undefined)));
-      kernel?.dispose();
-      if (tmp) rmSync(tmp, { recursive: true, force: true });
+      await stopTestServers({ jupyter, pageServer, tmp });
     }
   });
 
