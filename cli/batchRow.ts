@@ -35,11 +35,11 @@ export interface BatchRow {
  * @param modelId model id
  * @param args    parsed command line (fit settings and data options)
  */
-export function batchRow(input: BatchInput, modelId: string, args: ParsedArgs): BatchRow {
+export async function batchRow(input: BatchInput, modelId: string, args: ParsedArgs): Promise<BatchRow> {
   const where = input.page === undefined ? { file: input.path } : { file: input.path, page: input.page };
   try {
     const pageArgs = input.page === undefined ? args : withPage(args, input.page);
-    const { loaded, result, warnings, assumed } = fitFile(input.path, modelId, pageArgs);
+    const { loaded, result, warnings, assumed } = await fitFile(input.path, modelId, pageArgs);
     const fit = fitJson(result, loaded.profile.provenance, warnings, assumed);
     if (!result.converged) return { ...where, status: "not-converged", message: notConvergedText(result), fit };
     // A converged fit that a check calls doubtful says so in the row itself, not only in its JSON.

@@ -1,8 +1,9 @@
 /**
  * Options shared by the commands that read data, and the loading itself.
  */
+import { createHash } from "node:crypto";
 import { basename } from "node:path";
-import { parseQuantity, readImage, readProfile, type ImageStack, type LoadedProfile, type ProfileOptions, type RegionOfInterest } from "../src/advanced.js";
+import { isImage, parseQuantity, readTableOrFrame, type FrameProfileReader, type ImageStack, type LoadedProfile, type ProfileOptions, type RegionOfInterest } from "../src/advanced.js";
 import { readInputFile } from "./files.js";
 import type { OptionSpec, ParsedArgs } from "./parseArgs.js";
 import { UsageError } from "./usageError.js";
@@ -28,7 +29,7 @@ export const DATA_OPTIONS: Record<string, OptionSpec> = {
  * @param args parsed command line
  * @param source name of the data file (for messages)
  */
-export function profileOptions(args: ParsedArgs, source: string): ProfileOptions {
+export async function profileOptions(args: ParsedArgs, source: string): Promise<ProfileOptions> {
   const options: ProfileOptions = { source };
   const pitch = args.values.get("pixel-pitch");
   if (pitch !== undefined) {
@@ -56,9 +57,9 @@ export function profileOptions(args: ParsedArgs, source: string): ProfileOptions
     options.page = page === "mean" ? "mean" : Number(page);
   }
   const dark = args.values.get("dark");
-  if (dark !== undefined) options.dark = readFrame(dark);
+  if (dark !== undefined) options.dark = await readFrame(dark);
   const flat = args.values.get("flat");
-  if (flat !== undefined) options.flat = readFrame(flat);
+  if (flat !== undefined) options.flat = await readFrame(flat);
   return options;
 }
 
@@ -70,18 +71,34 @@ export function parseRoi(text: string): RegionOfInterest {
   return { x, y, width, height };
 }
 
-function readFrame(path: string): ImageStack {
-  return readImage(readInputFile(path), path);
+// The image decoders (fast-png, fflate, utif2) are loaded only when an image is read: a table
+// fit does not pay for them at command start (benchmark B9).
+async function readFrame(path: string): Promise<ImageStack> {
+  const bytes = readInputFile(path);
+  const { readImage } = await import("../src/io/readImage.js");
+  return readImage(bytes, path);
 }
 
+async function frameReader(): Promise<FrameProfileReader> {
+  return (await import("../src/io/readFrameProfile.js")).readFrameProfile;
+}
+
+const NO_FRAME_READER: FrameProfileReader = () => {
+  throw new Error("frame reader not loaded for an image"); // unreachable: images get frameReader()
+};
+
 /**
- * Reads a data file (table or frame) into a profile.
+ * Reads a data file (table or frame) into a profile, as readProfile does. A table's SHA-256
+ * (provenance) is computed by Node's crypto, the same digest as the library's own sha256Hex.
  * @param path file path
  * @param args parsed command line with the data options
  */
-export function loadData(path: string, args: ParsedArgs): LoadedProfile {
+export async function loadData(path: string, args: ParsedArgs): Promise<LoadedProfile> {
   const bytes = readInputFile(path);
-  const loaded = readProfile(bytes, profileOptions(args, path));
+  const options = await profileOptions(args, path);
+  const image = isImage(bytes);
+  if (!image) options.sha256 = createHash("sha256").update(bytes).digest("hex");
+  const loaded = readTableOrFrame(bytes, options, image ? await frameReader() : NO_FRAME_READER);
   const provenance = loaded.profile.provenance;
   if (provenance) {
     provenance.source = basename(path);

@@ -87,7 +87,7 @@ export async function batchCommand(words: readonly string[]): Promise<CommandOut
   let stats: PoolStats | undefined;
   try {
     if (jobs === 1 || todo.length <= 1) {
-      for (const position of todo) record(position, batchRow(inputs[position]!, modelId, fitArgs));
+      for (const position of todo) record(position, await batchRow(inputs[position]!, modelId, fitArgs));
     } else {
       stats = await runPool<BatchInput, BatchRow>({
         workerUrl: new URL("../batchWorker.js", import.meta.url),

@@ -10,13 +10,13 @@ import { UsageError } from "../usageError.js";
 import { FIT_OPTIONS } from "./fit.js";
 
 /** Runs the compare command. */
-export function compareCommand(words: readonly string[]): CommandOutput {
+export async function compareCommand(words: readonly string[]): Promise<CommandOutput> {
   const args = parseArgs(words, { ...FIT_OPTIONS, models: { kind: "value" } }, "compare");
   if (args.positionals.length !== 1) throw new UsageError(`compare needs exactly one data file (got ${args.positionals.length})`);
   const ids = (args.values.get("models") ?? "").split(",").map((s) => s.trim()).filter((s) => s !== "");
   if (ids.length < 2) throw new UsageError("compare needs at least two models: --models two-slit,n-slit");
   const path = args.positionals[0]!;
-  const loaded = loadData(path, args);
+  const loaded = await loadData(path, args);
   const fitOptions: Record<string, unknown>[] = [];
   const candidates = ids.map((id) => {
     const model = getModel(id);

@@ -26,8 +26,8 @@ export const FIT_OPTIONS = {
 export const DEFAULT_MODEL = "two-slit";
 
 /** Fits one file with one model. */
-export function fitFile(path: string, modelId: string, args: ParsedArgs): { loaded: LoadedProfile; result: FitResult; warnings: string[]; assumed: AssumedDefault[]; settings: CommandFitOptions } {
-  const loaded = loadData(path, args);
+export async function fitFile(path: string, modelId: string, args: ParsedArgs): Promise<{ loaded: LoadedProfile; result: FitResult; warnings: string[]; assumed: AssumedDefault[]; settings: CommandFitOptions }> {
+  const loaded = await loadData(path, args);
   const model = getModel(modelId);
   const settings = fitSettings(model, args.lists.get("set") ?? [], args.lists.get("fix") ?? [], args.values.get("noise"), args.values.get("max-evaluations"));
   const warnings = [...loaded.warnings];
@@ -46,7 +46,7 @@ export async function fitCommand(words: readonly string[]): Promise<CommandOutpu
   if (figure !== undefined) checkOutputPath(figure, [path]);
   const out = args.values.get("out");
   if (out !== undefined) checkOutputPath(out, [path]);
-  const { loaded, result, warnings, assumed, settings } = fitFile(path, args.values.get("model") ?? DEFAULT_MODEL, args);
+  const { loaded, result, warnings, assumed, settings } = await fitFile(path, args.values.get("model") ?? DEFAULT_MODEL, args);
   // Default geometry and saturation are warnings of the result itself now (codes default-geometry, saturated-masked).
   void assumed;
   const carried = new Set((loaded.profile.warnings ?? []).map((w) => w.message));

@@ -8,11 +8,11 @@ import type { CommandOutput } from "../output.js";
 import { UsageError } from "../usageError.js";
 
 /** Runs the profile command: frame → CSV table (position or pixel, intensity, sigma). */
-export function profileCommand(words: readonly string[]): CommandOutput {
+export async function profileCommand(words: readonly string[]): Promise<CommandOutput> {
   const args = parseArgs(words, { ...DATA_OPTIONS, out: { kind: "value" } }, "profile");
   if (args.positionals.length !== 1) throw new UsageError(`profile needs exactly one frame file (got ${args.positionals.length})`);
   const path = args.positionals[0]!;
-  const options = profileOptions(args, path);
+  const options = await profileOptions(args, path);
   const bytes = readInputFile(path);
   const stack = readImage(bytes, path);
   const line = frameToLine(stack, { ...options, maskSaturated: true });

@@ -8,13 +8,7 @@ import { DataError, FringekitError } from "../errors.js";
 import type { ImageStack } from "./imageTypes.js";
 import { InflateLimitExceeded, inflatedSize } from "./boundedInflate.js";
 import { formatBytes, INFLATE_SLACK_BYTES, MAX_DECODED_IMAGE_BYTES, MAX_IMAGE_PIXELS } from "./limits.js";
-
-const SIGNATURE = [0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a];
-
-/** True when the bytes start with the PNG signature. */
-export function isPng(bytes: Uint8Array): boolean {
-  return bytes.length >= 8 && SIGNATURE.every((b, i) => bytes[i] === b);
-}
+import { isPng } from "./fileSignature.js";
 
 /**
  * Decodes an 8- or 16-bit grey or RGB PNG (alpha ignored; indexed colour and bit depths below 8
