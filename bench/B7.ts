@@ -12,7 +12,7 @@ import { b1Profile, fitB1, PYTHON } from "./B1.js";
 
 const HERE = dirname(fileURLToPath(import.meta.url));
 const ROOT = dirname(HERE);
-const ROUNDS = 5;
+const ROUNDS = 9;
 
 /** GNU time (Debian package "time") reports the child's CPU time, which the machine's load disturbs far less than wall time. */
 const GNU_TIME = "/usr/bin/time";

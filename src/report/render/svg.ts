@@ -4,10 +4,24 @@ import { SCRIPT_SCALE, SCRIPT_SHIFT } from "./markup.js";
 import { num, type PathItem, type Scene, type SceneItem, type TextItem } from "./scene.js";
 
 /**
+ * A pixel frame for rasterising part of a scene: the document is `width` × `height` pixels and
+ * shows the scene's rectangle `viewBox` [x, y, w, h] (CSS px) in it, with w/h = width/height.
+ */
+export interface SvgFrame {
+  /** Document size (px). */
+  width: number;
+  height: number;
+  /** The part of the scene shown, in the scene's CSS px: [x, y, w, h]. */
+  viewBox: [number, number, number, number];
+}
+
+/**
  * The SVG 1.1 document of `scene`: width and height in mm (so it prints at journal size),
  * viewBox in CSS px, text as text (searchable, editable) in the scene's font family.
+ * With `frame` the document is sized in pixels and shows only `frame.viewBox` of the scene
+ * (how the PNG writer draws a figure in horizontal bands, one per thread).
  */
-export function sceneToSvg(scene: Scene): string {
+export function sceneToSvg(scene: Scene, frame?: SvgFrame): string {
   const out: string[] = [];
   let clipCount = 0;
   const write = (item: SceneItem) => {
@@ -24,10 +38,15 @@ export function sceneToSvg(scene: Scene): string {
   scene.items.forEach(write);
   return (
     // No XML declaration: UTF-8 is XML's default, and an SVG that starts with <svg embeds anywhere.
-    `<svg xmlns="http://www.w3.org/2000/svg" width="${scene.widthMm}mm" height="${scene.heightMm}mm" viewBox="0 0 ${scene.width} ${scene.height}" font-family="${escapeHtml(scene.fontFamily)}">\n` +
+    `<svg xmlns="http://www.w3.org/2000/svg" ${frame ? framed(frame) : `width="${scene.widthMm}mm" height="${scene.heightMm}mm" viewBox="0 0 ${scene.width} ${scene.height}"`} font-family="${escapeHtml(scene.fontFamily)}">\n` +
     `<rect width="${scene.width}" height="${scene.height}" fill="${scene.background}"/>\n` +
     `${out.join("\n")}\n</svg>\n`
   );
+}
+
+/** Root size and viewBox of a framed document, full precision so that band edges meet on pixel rows. */
+function framed(frame: SvgFrame): string {
+  return `width="${frame.width}" height="${frame.height}" viewBox="${frame.viewBox.join(" ")}" preserveAspectRatio="none"`;
 }
 
 function pathElement(p: PathItem): string {

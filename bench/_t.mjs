@@ -1,0 +1,10 @@
+const { readFileSync } = await import("node:fs");
+const { fitFigure, saveFigure } = await import("fringekit/figures");
+process.stderr.write("imported "+performance.now().toFixed(1)+"\n");
+const rows = readFileSync(process.argv[2], "utf8").trim().split("\n").slice(1).map((line) => line.split(",").map(Number));
+const column = (k) => Float64Array.from(rows, (r) => r[k]);
+const profile = { x: column(0), y: column(1), yUnit: "counts", counts: true };
+const figure = fitFigure(profile, { modelId: "two-slit", model: column(2), residuals: column(3) });
+process.stderr.write("figure "+performance.now().toFixed(1)+"\n");
+await saveFigure(figure, process.argv[3], { formats: ["svg", "pdf", "png"], dpi: 600 });
+process.stderr.write("done "+performance.now().toFixed(1)+"\n");
