@@ -65,9 +65,9 @@ export function farFieldCandidates(ctx: StartContext): Record<string, number>[] 
  * its wavenumber sibling "two-slit-broadband" (same parameters and options; it maps the spectrum
  * to first order, so the two differ by about (σλ/λ0)² of the signal, 1e-4 at 15 nm around 590 nm,
  * far less than what sets candidates apart) and costs 1/20–1/40 as much per evaluation: ranking
- * the bandwidth ladder (4 rungs per heuristic start, 32 candidates) with the model itself took
- * 3/4 of a blind fit. Any other model, and a hand-built one whose options are unknown, is ranked
- * on itself. The candidates kept are then run on the model itself.
+ * the bandwidth ladder (4 rungs per heuristic start: 32 candidates, 96 on a gapped line) with
+ * the model itself took 3/4 of a blind fit. Any other model, and a hand-built one whose options
+ * are unknown, is ranked on itself. The candidates kept are then run on the model itself.
  */
 export function rankingStandIn(prep: PreparedFit): PreparedFit {
   if (prep.model.id !== "two-slit-broadband-wavelength") return prep;
