@@ -10,6 +10,7 @@ const detectorCases: Record<string, Record<string, number>> = {
   "single-slit": { amplitude: 5e3, center: 0.2e-3, width: 0.15e-3, pixelWidth: 10e-6, blur: 20e-6 },
   "two-beam": { amplitude: 3e3, center: 0.1e-3, separation: 0.4e-3, beamWaist: 3e-3, visibility: 0.6, phase: -1.1, pixelWidth: 8e-6 },
   "two-slit-broadband": { amplitude: 2e4, center: 0.2e-3, separation: 0.5e-3, width: 0.1e-3, visibility: 0.9, phase: 0.4, bandwidth: 40e-9, pixelWidth: 6e-6, blur: 5e-6 },
+  "two-slit-broadband-wavelength": { amplitude: 2e4, center: 0.2e-3, separation: 0.5e-3, width: 0.1e-3, visibility: 0.9, phase: 0.4, bandwidth: 40e-9, pixelWidth: 6e-6, blur: 5e-6 },
   "two-slit-spectrum": { amplitude: 2e4, center: 0.2e-3, separation: 0.5e-3, width: 0.1e-3, visibility: 0.9, phase: 0.4, pixelWidth: 6e-6 },
   "two-slit-fresnel": { amplitude: 100, center: 0.05e-3, separation: 0.5e-3, width: 0.2e-3, slits: 3, distance: 0.1, pixelWidth: 5e-6, blur: 3e-6 },
 };

@@ -7,7 +7,7 @@ import type { PreparedFit } from "../preparedFit.js";
 import { coherenceScanCandidates } from "./coherenceScan.js";
 import { startContext } from "./context.js";
 import { designCandidates } from "./design.js";
-import { farFieldCandidates, twoBeamCandidates } from "./farField.js";
+import { farFieldCandidates, rankingStandIn, twoBeamCandidates } from "./farField.js";
 import { nearFieldCandidates } from "./nearField.js";
 import { rankCandidates } from "./rank.js";
 
@@ -54,6 +54,6 @@ export function startCandidates(prep: PreparedFit): StartPlan {
     method = raw.length > 0 ? "space-filling design over the bounds" : "none";
   }
   const stride = prep.model.id === "two-slit-fresnel" ? Math.max(1, Math.floor(prep.x.length / 1024)) : 1;
-  const ranked = raw.length > 0 ? rankCandidates(prep, raw, CANDIDATES_KEPT, stride) : [];
+  const ranked = raw.length > 0 ? rankCandidates(rankingStandIn(prep), raw, CANDIDATES_KEPT, stride) : [];
   return { candidates: ranked.map((r) => r.start), method };
 }
