@@ -372,7 +372,7 @@ export class ExplorerView extends FigureView {
       shapes.push({ type: "rect", xref: "x", yref: "paper", x0: window[0] * this.xFactor, x1: window[1] * this.xFactor, y0: 0, y1: 1, fillcolor: palette.windowShade, line: { color: palette.fit, width: 1, dash: "dot" }, layer: "below" });
     }
     const residualLabel = residualAxisTitle(this.residualKind());
-    await this.drawFigure(data, baseLayout({
+    const drawn = await this.drawFigure(data, baseLayout({
       dragmode: this.dragMode === "zoom" ? "zoom" : "select",
       selectdirection: "h",
       xaxis: axis(`position (${this.xLabel})`, { anchor: "y2" }),
@@ -382,6 +382,7 @@ export class ExplorerView extends FigureView {
       uirevision: "keep",
       height: this.plotHeight(),
     }));
+    if (!drawn) return;
     const plot = this.plotEl as unknown as { removeAllListeners?: (e: string) => void; on: (e: string, f: (d: any) => void) => void };
     plot.removeAllListeners?.("plotly_selected");
     plot.removeAllListeners?.("plotly_afterplot");
@@ -389,6 +390,10 @@ export class ExplorerView extends FigureView {
     plot.on("plotly_afterplot", () => this.paintOverlay());
     this.paintOverlay();
     this.el.dispatchEvent(new CustomEvent("fk-redraw", { detail: { since: 0, done: performance.now() } }));
+  }
+
+  protected redrawAll(): void {
+    void this.redraw();
   }
 
   protected override resized(): void {
