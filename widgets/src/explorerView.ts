@@ -373,6 +373,9 @@ export class ExplorerView extends FigureView {
     }
     const residualLabel = residualAxisTitle(this.residualKind());
     const drawn = await this.drawFigure(data, baseLayout({
+      // Room for the legend above and the axis titles: plotly draws the figure a second time
+      // when its axes push the margins out (automargin stays on for wider tick labels).
+      margin: { l: 70, r: 16, t: 52, b: 52 },
       dragmode: this.dragMode === "zoom" ? "zoom" : "select",
       selectdirection: "h",
       xaxis: axis(`position (${this.xLabel})`, { anchor: "y2" }),
