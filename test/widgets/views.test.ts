@@ -1,4 +1,4 @@
-// Widget views in headless Chromium against the ipywidgets HTML manager with no kernel.
+// Widget views in headless Chromium against the offline pages' widget manager with no kernel.
 import { readFile } from "node:fs/promises";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { getModel } from "../../src/physics/index.js";
