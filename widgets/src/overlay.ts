@@ -1,7 +1,9 @@
 /**
- * Canvas layer over a plotly figure for what changes at slider speed (the model curve and
- * residuals): redrawing a canvas costs a few ms where a plotly redraw of an 8192-point SVG
- * figure costs hundreds. Positions come from plotly's own axis mapping, so zoom and resize match.
+ * Canvas layers on a plotly figure: over it, what changes at slider speed (the model curve and
+ * residuals); under it, the many data markers (one SVG element per point made plotly's first
+ * draw of an 8192-point profile take ~0.5 s). Redrawing a canvas costs a few ms where a plotly
+ * redraw of an 8192-point SVG figure costs hundreds. Positions come from plotly's own axis
+ * mapping, so zoom and resize match.
  */
 
 /** A plotly axis as laid out (internal fields plotly keeps on the graph div's _fullLayout). */
@@ -12,14 +14,19 @@ interface LaidOutAxis {
   type: string;
 }
 
-/** What to draw: x in display units, lines and/or points per y-axis name ("yaxis", "yaxis2"). */
+/**
+ * What to draw: x in display units, per y-axis name ("yaxis", "yaxis2"): a line, small squares
+ * ("points"), or round markers as plotly draws them ("markers": `width` is the diameter in px,
+ * each filled with `opacity`, so overlapping markers darken as plotly's do).
+ */
 export interface OverlaySeries {
   x: Float64Array;
   y: Float64Array;
   yaxis: "yaxis" | "yaxis2";
   color: string;
-  style: "line" | "points";
+  style: "line" | "points" | "markers";
   width: number;
+  opacity?: number;
 }
 
 /** Draw `series` onto `canvas`, sized to `plot` (the plotly graph div), clipped to each subplot. */
@@ -68,6 +75,16 @@ export function drawOverlay(canvas: HTMLCanvasElement, plot: HTMLElement, series
         pen = true;
       }
       ctx.stroke();
+    } else if (s.style === "markers") {
+      const radius = s.width / 2;
+      ctx.globalAlpha = s.opacity ?? 1;
+      for (let i = 0; i < n; i++) {
+        const yi = s.y[i]!;
+        if (!Number.isFinite(yi)) continue;
+        ctx.beginPath();
+        ctx.arc(xa._offset + xa.l2p(s.x[i]!), ya._offset + ya.l2p(yi), radius, 0, 2 * Math.PI);
+        ctx.fill();
+      }
     } else {
       const size = s.width;
       for (let i = 0; i < n; i++) {
