@@ -17,7 +17,7 @@ import { readFitJson, type FitJson } from "../../src/report/results/fitJson.js";
 import { axis, baseLayout, FigureView } from "./figureView.js";
 import { ParamRow } from "./paramRow.js";
 import { effectiveMask, paramsForModel, paramVector, residuals, type ParamState } from "../shared/preview.js";
-import { drawOverlay, type OverlaySeries } from "./overlay.js";
+import { drawOverlay, type OverlayBand, type OverlaySeries } from "./overlay.js";
 import { palette } from "./styles.js";
 import Plotly from "plotly.js-dist-min";
 
@@ -316,7 +316,11 @@ export class ExplorerView extends FigureView {
     const series: OverlaySeries[] = [];
     if (shown(0)) series.push({ x: this.xShown, y: this.usedY, yaxis: "yaxis", color: palette.data, style: "markers", width: this.markerSize, opacity: 0.75 });
     if (shown(1)) series.push({ x: this.xShown, y: this.excludedY, yaxis: "yaxis", color: palette.masked, style: "markers", width: this.markerSize });
-    drawOverlay(this.dataLayer, this.plotEl, series);
+    // Masked ranges and the fit window are shaded here too, under their points.
+    const bands: OverlayBand[] = (this.model.get("masked_ranges") as [number, number][]).map(([a, b]) => ({ x0: a * this.xFactor, x1: b * this.xFactor, fill: palette.maskShade }));
+    const window = this.model.get("window") as [number, number] | null;
+    if (window) bands.push({ x0: window[0] * this.xFactor, x1: window[1] * this.xFactor, fill: palette.windowShade, outline: palette.fit });
+    drawOverlay(this.dataLayer, this.plotEl, series, bands);
   }
 
   /** Draw the slider-driven model curve and residuals on the canvas layer. */
@@ -390,14 +394,6 @@ export class ExplorerView extends FigureView {
       { type: "scatter", mode: "markers", name: "data", legendgroup: "data", x: [null], y: [null], marker: { color: palette.data, size: markerSize, opacity: 0.75 }, hoverinfo: "skip", legendrank: 1 },
       { type: "scatter", mode: "markers", name: "excluded", legendgroup: "excluded", x: [null], y: [null], marker: { color: palette.masked, size: markerSize }, showlegend: this.used.includes(0), hoverinfo: "skip", legendrank: 2 },
     ];
-    const shapes: Record<string, unknown>[] = [];
-    for (const [a, b] of this.model.get("masked_ranges") as [number, number][]) {
-      shapes.push({ type: "rect", xref: "x", yref: "paper", x0: a * this.xFactor, x1: b * this.xFactor, y0: 0, y1: 1, fillcolor: palette.maskShade, line: { width: 0 }, layer: "below" });
-    }
-    const window = this.model.get("window") as [number, number] | null;
-    if (window) {
-      shapes.push({ type: "rect", xref: "x", yref: "paper", x0: window[0] * this.xFactor, x1: window[1] * this.xFactor, y0: 0, y1: 1, fillcolor: palette.windowShade, line: { color: palette.fit, width: 1, dash: "dot" }, layer: "below" });
-    }
     const residualLabel = residualAxisTitle(this.residualKind());
     const drawn = await this.drawFigure(data, baseLayout({
       // Room for the legend above and the axis titles: plotly draws the figure a second time
@@ -410,7 +406,6 @@ export class ExplorerView extends FigureView {
       xaxis: axis(`position (${this.xLabel})`, { anchor: "y2" }),
       yaxis: axis(`intensity (${yUnit})`, { domain: [0.3, 1] }),
       yaxis2: axis(residualLabel, { domain: [0, 0.22], zeroline: true, range: this.residualRange() }),
-      shapes,
       uirevision: "keep",
       height: this.plotHeight(),
     }));

@@ -29,9 +29,24 @@ export interface OverlaySeries {
   opacity?: number;
 }
 
-/** Draw `series` onto `canvas`, sized to `plot` (the plotly graph div), clipped to each subplot. */
-export function drawOverlay(canvas: HTMLCanvasElement, plot: HTMLElement, series: readonly OverlaySeries[]): void {
-  const layout = (plot as unknown as { _fullLayout?: Record<string, LaidOutAxis | undefined> })._fullLayout;
+/**
+ * A shaded x range over the whole plotting area (both subplots), as a plotly rect shape with
+ * yref "paper" draws it: `x0`, `x1` in display units, an optional outline dotted as plotly's
+ * "dot" dash at 1 px.
+ */
+export interface OverlayBand {
+  x0: number;
+  x1: number;
+  fill: string;
+  outline?: string;
+}
+
+/**
+ * Draw `bands`, then `series` onto `canvas`, sized to `plot` (the plotly graph div), each series
+ * clipped to its subplot.
+ */
+export function drawOverlay(canvas: HTMLCanvasElement, plot: HTMLElement, series: readonly OverlaySeries[], bands: readonly OverlayBand[] = []): void {
+  const layout = (plot as unknown as { _fullLayout?: Record<string, LaidOutAxis | undefined> & { _size?: { t: number; h: number } } })._fullLayout;
   const width = plot.clientWidth;
   const height = plot.clientHeight;
   const ratio = window.devicePixelRatio || 1;
@@ -47,6 +62,22 @@ export function drawOverlay(canvas: HTMLCanvasElement, plot: HTMLElement, series
   ctx.clearRect(0, 0, width, height);
   const xa = layout?.xaxis;
   if (!xa || xa.type !== "linear") return;
+  const area = layout?._size;
+  for (const band of area ? bands : []) {
+    const left = Math.max(xa._offset, xa._offset + xa.l2p(Math.min(band.x0, band.x1)));
+    const right = Math.min(xa._offset + xa._length, xa._offset + xa.l2p(Math.max(band.x0, band.x1)));
+    if (!(right > left)) continue;
+    ctx.fillStyle = band.fill;
+    ctx.fillRect(left, area!.t, right - left, area!.h);
+    if (band.outline) {
+      ctx.save();
+      ctx.strokeStyle = band.outline;
+      ctx.lineWidth = 1;
+      ctx.setLineDash([3, 3]);
+      ctx.strokeRect(left + 0.5, area!.t + 0.5, right - left - 1, area!.h - 1);
+      ctx.restore();
+    }
+  }
   for (const s of series) {
     const ya = layout?.[s.yaxis];
     if (!ya || ya.type !== "linear") continue;
