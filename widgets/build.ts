@@ -1,8 +1,8 @@
 /**
  * Builds the browser bundles into widgets/dist/ with esbuild:
  *   fringekit-widgets.js  the widget module as an ES module (for pages and loaders that import it)
- *   fringekit-embed.js    the offline renderer: widget manager + widgets + plotly in one classic
- *                         script that never sees an AMD `define` (safe on require.js pages)
+ *   fringekit-embed.js    the offline renderer: a kernel-less widget manager + widgets + plotly in
+ *                         one classic script that never sees an AMD `define` (safe on require.js pages)
  * plus any extra entries (test pages). Run: `npx tsx widgets/build.ts`.
  */
 import { build, type BuildOptions, type Plugin } from "esbuild";
@@ -50,6 +50,19 @@ export async function buildWidgetBundles(extra: ExtraEntry[] = []): Promise<stri
       b.onLoad({ filter: /.*/, namespace: "fk-worker" }, () => ({ contents: `export default ${JSON.stringify(workerSource)};`, loader: "js" }));
     },
   };
+  // The page manager (pageManager.ts) escapes control descriptions itself, so the widget
+  // manager's HTML sanitiser (sanitize-html with postcss and an HTML parser, ~250 KB) is left out
+  // of the offline renderer; a call to it would fail loudly rather than pass HTML through.
+  const noSanitizerPlugin: Plugin = {
+    name: "no-sanitize-html",
+    setup(b) {
+      b.onResolve({ filter: /^sanitize-html$/ }, (args) => ({ path: args.path, namespace: "fk-no-sanitizer" }));
+      b.onLoad({ filter: /.*/, namespace: "fk-no-sanitizer" }, () => ({
+        contents: 'export default function sanitizeHtml() { throw new Error("no HTML sanitiser in the offline renderer: fringekit pages escape widget descriptions as text"); }',
+        loader: "js",
+      }));
+    },
+  };
   const moduleOut = path.join(distDir, "fringekit-widgets.js");
   await build({ ...common, entryPoints: [path.join(widgetsDir, "src/entry/module.ts")], format: "esm", outfile: moduleOut });
   written.push(moduleOut);
@@ -58,7 +71,8 @@ export async function buildWidgetBundles(extra: ExtraEntry[] = []): Promise<stri
     const outfile = path.join(distDir, item.out);
     // IIFE output with `define` renamed away: a require.js page would otherwise route UMD
     // dependencies inside the bundle down the AMD path and they would never load.
-    await build({ ...common, entryPoints: [item.entry], format: "iife", outfile, define: { ...common.define, define: "undefined" }, plugins: [workerPlugin] });
+    const plugins = item.out === "fringekit-embed.js" ? [workerPlugin, noSanitizerPlugin] : [workerPlugin];
+    await build({ ...common, entryPoints: [item.entry], format: "iife", outfile, define: { ...common.define, define: "undefined" }, plugins });
     written.push(outfile);
   }
   return written;

@@ -1,7 +1,7 @@
 /**
  * The prose of an offline notebook page: Markdown cells rendered as Markdown (markdown-it,
- * CommonMark with GFM tables), TeX math typeset offline by KaTeX (its fonts inlined as data
- * URLs, so the page needs no network), code cells coloured by highlight.js, and a table of
+ * CommonMark with GFM tables), TeX math typeset offline by KaTeX (the fonts the math uses
+ * inlined as data URLs, so the page needs no network), code cells coloured by highlight.js, and a table of
  * contents from the headings for long notebooks. No script is emitted: raw HTML in Markdown is
  * shown as text, link targets pass markdown-it's URL check (no javascript:), and KaTeX runs with
  * `trust: false` (no \href, \url, \includegraphics targets).
@@ -45,7 +45,7 @@ export interface NotebookProse {
   headings(): NotebookHeading[];
   /** A `<nav>` listing the headings (levels 1–3), or "" for a notebook with fewer than `minHeadings`. */
   tableOfContents(minHeadings?: number): string;
-  /** CSS for the prose and code colours, plus KaTeX's (fonts inlined) when any math was rendered. */
+  /** CSS for the prose and code colours, plus KaTeX's when any math was rendered (the fonts it uses inlined). */
   css(): string;
 }
 
@@ -118,6 +118,46 @@ function katexStylesheet(): string {
   return katexCss;
 }
 
+/**
+ * KaTeX's stylesheet with only the font faces the typeset math can use. A rule of KaTeX's own
+ * stylesheet applies when every class of one of its selectors occurs in the math (e.g.
+ * `.katex .mathfrak` → KaTeX_Fraktur); a family is kept when an applying rule names it
+ * (KaTeX_Main always: the `.katex` base font), and its bold or italic faces only when an
+ * applying rule asks for bold or italic (for that family, or for any when the rule names none,
+ * as `.textbf` does). All twenty faces are ~350 KB in the page; a plain formula needs four.
+ * @param classes every class name in the typeset math's HTML
+ */
+export function katexStylesheetFor(classes: ReadonlySet<string>): string {
+  const css = katexStylesheet();
+  const faces = /@font-face\{[^}]*\}/g;
+  const used = new Map<string, { bold: boolean; italic: boolean }>();
+  const anyFamily = { bold: false, italic: false };
+  for (const rule of css.replace(faces, "").matchAll(/([^{}]+)\{([^}]*)\}/g)) {
+    const body = rule[2]!;
+    const bold = /font-weight:(?:700|bold)/.test(body);
+    const italic = /font-style:italic/.test(body);
+    const families = [...body.matchAll(/KaTeX_\w+/g)].map((m) => m[0]);
+    if (families.length === 0 && !bold && !italic) continue;
+    const selectors = rule[1]!.split(",").map((selector) => [...selector.matchAll(/\.([\w-]+)/g)].map((m) => m[1]!).filter((c) => c !== "katex"));
+    if (!selectors.some((needed) => needed.every((c) => classes.has(c)))) continue;
+    if (families.length === 0) {
+      anyFamily.bold ||= bold;
+      anyFamily.italic ||= italic;
+    }
+    for (const family of families) {
+      const styles = used.get(family) ?? { bold: false, italic: false };
+      used.set(family, { bold: styles.bold || bold, italic: styles.italic || italic });
+    }
+  }
+  return css.replace(faces, (face) => {
+    const styles = used.get(/font-family:"?(KaTeX_\w+)/.exec(face)?.[1] ?? "");
+    if (!styles) return "";
+    const boldFace = /font-weight:(?:700|bold)/.test(face);
+    const italicFace = /font-style:italic/.test(face);
+    return (!boldFace || styles.bold || anyFamily.bold) && (!italicFace || styles.italic || anyFamily.italic) ? face : "";
+  });
+}
+
 // Our own colours (the project palette's navy, vermilion, teal and ochre, darkened for text).
 const PROSE_CSS = `
 .fk-md { line-height: 1.55; }
@@ -160,8 +200,16 @@ export function createNotebookProse(): NotebookProse {
   const md = new MarkdownIt({ html: false, linkify: true, typographer: false });
   md.inline.ruler.before("escape", "math_inline", inlineMath);
   md.block.ruler.before("fence", "math_block", blockMath, { alt: ["paragraph", "reference", "blockquote", "list"] });
-  md.renderer.rules.math_inline = (tokens, i) => { math = true; return tex(tokens[i]!.content, false); };
-  md.renderer.rules.math_display = (tokens, i) => { math = true; return tokens[i]!.block ? `<div class="fk-math">${tex(tokens[i]!.content, true)}</div>\n` : tex(tokens[i]!.content, true); };
+  // Class names of all typeset math, so the page carries only the fonts it uses.
+  const mathClasses = new Set<string>();
+  const typeset = (source: string, display: boolean) => {
+    math = true;
+    const html = tex(source, display);
+    for (const [, names] of html.matchAll(/class="([^"]*)"/g)) for (const name of names!.split(/\s+/)) if (name) mathClasses.add(name);
+    return html;
+  };
+  md.renderer.rules.math_inline = (tokens, i) => typeset(tokens[i]!.content, false);
+  md.renderer.rules.math_display = (tokens, i) => tokens[i]!.block ? `<div class="fk-math">${typeset(tokens[i]!.content, true)}</div>\n` : typeset(tokens[i]!.content, true);
   // Fenced code inside Markdown gets the same colours as code cells.
   md.options.highlight = (code, lang) => {
     const language = LANGUAGE_ALIASES[lang.toLowerCase()];
@@ -194,6 +242,6 @@ export function createNotebookProse(): NotebookProse {
       const items = listed.map((h) => `<li class="fk-toc-${h.level}"><a href="#${h.id}">${escapeHtml(h.text)}</a></li>`).join("");
       return `<nav class="fk-toc" aria-label="Contents"><div class="fk-toc-title">Contents</div><ol>${items}</ol></nav>`;
     },
-    css: () => PROSE_CSS + (math ? katexStylesheet() : ""),
+    css: () => PROSE_CSS + (math ? katexStylesheetFor(mathClasses) : ""),
   };
 }

@@ -5,9 +5,11 @@ import { readFileSync } from "node:fs";
 
 import path from "node:path";
 import { mkdirSync } from "node:fs";
+import { decode } from "fast-png";
+import pixelmatch from "pixelmatch";
 import { describe, expect, it } from "vitest";
 import { notebookHtml } from "../../kernel-ext/widgets/exportHtml.js";
-import { createNotebookProse } from "../../kernel-ext/widgets/notebookMarkdown.js";
+import { createNotebookProse, katexStylesheetFor } from "../../kernel-ext/widgets/notebookMarkdown.js";
 import { repoRoot } from "../kernel/helpers.js";
 import { hasChromium, launchBrowser } from "./browser.js";
 
@@ -36,6 +38,23 @@ describe("createNotebookProse().markdown(source)", () => {
     const css = prose.css();
     expect(css).toContain("data:font/woff2;base64,");
     expect(css).not.toMatch(/url\(fonts\//);
+  });
+
+  it("css() carries only the KaTeX font faces the typeset math uses", () => {
+    // Which class draws in which face is KaTeX's own stylesheet (katex.min.css): .mathnormal is
+    // KaTeX_Math italic, .mathfrak KaTeX_Fraktur, .textbf bold, .op-symbol.large-op KaTeX_Size2.
+    const faces = (css: string) => [...css.matchAll(/@font-face\{[^}]*font-family:"?(KaTeX_\w+)"?;font-style:(\w+);font-weight:(\d+)/g)].map((m) => `${m[1]} ${m[2]} ${m[3]}`).sort();
+    const plain = createNotebookProse();
+    plain.markdown("visibility $V = \\frac{I_{max}-I_{min}}{I_{max}+I_{min}}$");
+    expect(faces(plain.css())).toEqual(["KaTeX_Main normal 400", "KaTeX_Math italic 400"]);
+    const more = createNotebookProse();
+    more.markdown("$\\mathfrak{g}$ and $\\textbf{B}$\n\n$$\\sum_{n=0}^{\\infty} x^n$$\n");
+    const carried = faces(more.css());
+    expect(carried).toEqual(expect.arrayContaining(["KaTeX_Fraktur normal 400", "KaTeX_Main normal 700", "KaTeX_Size2 normal 400"]));
+    expect(carried).not.toContain("KaTeX_Script normal 400");
+    // Every face of KaTeX's stylesheet is there when every class is.
+    const allClasses = new Set([...katexStylesheetFor(new Set()).matchAll(/\.([\w-]+)/g)].map((m) => m[1]!));
+    expect(faces(katexStylesheetFor(allClasses))).toHaveLength(20);
   });
 
   it("emits no script: raw HTML is text, javascript: links and KaTeX \\href are refused", () => {
@@ -72,6 +91,31 @@ const why = !hasChromium() ? "no /usr/bin/chromium" : undefined;
 if (why) console.warn(`test/widgets/notebookMarkdown: browser check skipped, ${why}`);
 
 describe.skipIf(why)("notebookHtml(demo notebook) in Chromium", () => {
+  it("math looks the same with only the fonts it uses as with all of KaTeX's fonts", async () => {
+    const prose = createNotebookProse();
+    const body = prose.markdown("Visibility $V = \\frac{I_{max}-I_{min}}{I_{max}+I_{min}}$, $\\mathbf{E} = \\boldsymbol{\\alpha}$, $\\textbf{b}$ " +
+      "$\\textit{i}$ $\\mathbb{R}$ $\\mathfrak{g}$ $\\mathcal{L}$ $\\mathsf{S}$ $\\mathtt{t}$\n\n" +
+      "$$\\left(\\int_0^\\infty \\frac{\\lambda^2}{\\Delta\\lambda}\\,d\\lambda\\right)^2 = \\sum_{n=0}^{\\infty} \\prod_k \\sqrt{x_k}$$\n");
+    const used = prose.css();
+    const allClasses = new Set([...katexStylesheetFor(new Set()).matchAll(/\.([\w-]+)/g)].map((m) => m[1]!));
+    const all = createNotebookProse().css() + katexStylesheetFor(allClasses); // the prose CSS alone (no math yet) and every face
+    expect(all.length).toBeGreaterThan(used.length);
+    const browser = await launchBrowser(1000, 400);
+    try {
+      const shots = [];
+      for (const css of [used, all]) {
+        await browser.page.setContent(`<!doctype html><meta charset="utf-8"><style>body { font: 16px sans-serif; } ${css}</style><div class="fk-md">${body}</div>`, { waitUntil: "load" });
+        await browser.page.evaluate(() => document.fonts.ready);
+        shots.push(decode(await browser.page.screenshot()));
+      }
+      const rgba = (image: ReturnType<typeof decode>) => Uint8Array.from({ length: image.width * image.height * 4 }, (_, i) =>
+        i % 4 === 3 ? 255 : Number(image.data[Math.floor(i / 4) * image.channels + (i % 4)]));
+      expect(pixelmatch(rgba(shots[0]!), rgba(shots[1]!), undefined, shots[0]!.width, shots[0]!.height, { threshold: 0.05 })).toBe(0);
+    } finally {
+      await browser.close();
+    }
+  });
+
   it("shows rendered Markdown, typeset math in KaTeX fonts, coloured code and the contents, with no network", async () => {
     const notebook = JSON.parse(readFileSync(path.join(repoRoot, "notebooks-demo/01-first-fit.ipynb"), "utf8"));
     // One extra cell with TeX, as a notebook author would write it.

@@ -1,4 +1,4 @@
-// Widget views in headless Chromium against the ipywidgets HTML manager with no kernel.
+// Widget views in headless Chromium against the offline pages' widget manager with no kernel.
 import { readFile } from "node:fs/promises";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { getModel } from "../../src/physics/index.js";
@@ -111,6 +111,51 @@ run("widget views in Chromium", () => {
     await h.page.click(`#host-${id} button[data-action=fit]`);
     await h.page.waitForTimeout(100);
     expect(await h.page.textContent(`#host-${id} .fk-status`)).toMatch(/open this notebook in Jupyter/);
+  });
+
+  it("ExplorerView draws nothing before it is in the page, then once at the page's width", async () => {
+    const drawn = (await h.page.evaluate(`(async () => {
+      const model = await fk.manager.new_model({ model_name: "ExplorerModel", model_module: fk.widgetModule.MODULE_NAME,
+        model_module_version: fk.widgetModule.MODULE_VERSION, model_id: "detached-view" }, fk.b1State(1024));
+      const view = await fk.manager.create_view(model);
+      const beforeShown = view.plotEl.childElementCount;
+      const host = document.body.appendChild(Object.assign(document.createElement("div"), { id: "host-detached-view" }));
+      const first = new Promise((resolve) => view.el.addEventListener("fk-redraw", () =>
+        resolve({ figureWidth: view.plotEl._fullLayout.width, plotWidth: view.plotEl.clientWidth }), { once: true }));
+      await fk.manager.display_view(view, host);
+      return { beforeShown, ...(await first) };
+    })()`)) as { beforeShown: number; figureWidth: number; plotWidth: number };
+    expect(drawn.beforeShown).toBe(0);
+    expect(drawn.plotWidth).toBeGreaterThan(300);
+    expect(drawn.figureWidth).toBe(drawn.plotWidth);
+  });
+
+  it("ExplorerView paints the data markers under the figure; hover reads a point; the legend hides them", async () => {
+    const id = await show("ExplorerModel", "fk.b1State(1024)");
+    const host = `#host-${id}`;
+    const view = `fk.views.get(${JSON.stringify(id)})`;
+    const painted = () => h.page.evaluate(`(() => { const c = ${view}.dataLayer;
+      const pixels = c.getContext("2d").getImageData(0, 0, c.width, c.height).data;
+      let n = 0; for (let i = 3; i < pixels.length; i += 4) if (pixels[i] > 0) n++; return n; })()`) as Promise<number>;
+    expect(await painted()).toBeGreaterThan(1024);
+    expect(await h.page.evaluate(`${view}.plotEl._fullLayout.plot_bgcolor`)).toBe("rgba(0,0,0,0)");
+    // Hover over the highest point: plotly still finds it (the points stay as invisible markers).
+    const point = (await h.page.evaluate(`(() => { const gd = ${view}.plotEl; gd.scrollIntoView();
+      const layout = gd._fullLayout, data = gd._fullData[0]; let best = 0;
+      for (let i = 0; i < data.y.length; i++) if (data.y[i] > data.y[best]) best = i;
+      const box = gd.getBoundingClientRect();
+      return { x: box.left + layout.xaxis._offset + layout.xaxis.l2p(data.x[best]), y: box.top + layout.yaxis._offset + layout.yaxis.l2p(data.y[best]), index: best }; })()`)) as { x: number; y: number; index: number };
+    await h.page.mouse.move(point.x - 20, point.y + 20);
+    await h.page.mouse.move(point.x, point.y, { steps: 5 });
+    // Neighbours less than a marker apart may win "closest": a point within a few of the highest.
+    await h.page.waitForFunction(`${view}.plotEl._hoverdata?.[0]?.curveNumber === 0 && Math.abs(${view}.plotEl._hoverdata[0].pointNumber - ${point.index}) <= 5`, null, { timeout: 5000 });
+    expect(await h.page.textContent(`${host} .hoverlayer`)).toMatch(/\(.+, .+\)/); // "(x, y)" label shown
+    await h.page.mouse.move(0, 0);
+    await h.page.locator(`${host} .legend .traces`).filter({ hasText: /^data$/ }).click();
+    await h.page.waitForFunction(`${view}.plotEl._fullData[0].visible === "legendonly"`);
+    await h.page.waitForTimeout(100);
+    expect(await painted()).toBe(0);
+    expect(h.errors).toEqual([]);
   });
 
   it("view.remove() purges the plot and stops listening to the model", async () => {

@@ -11,11 +11,22 @@ export function registerModel(model: Model): void {
   models.set(model.id, model);
 }
 
-/** The model with this id, or a clear error naming the ids that exist. */
+/**
+ * The model with this id, or a clear error naming the ids that exist. Models not registered
+ * one by one come from the registered builder, built on first use (only the models a page shows).
+ */
 export function modelById(id: string): Model {
-  const model = models.get(id);
+  let model = models.get(id);
+  if (model === undefined && builder !== null) {
+    try {
+      model = builder(id, {});
+      models.set(id, model);
+    } catch {
+      // unknown id or one that needs options: the error below names the ids there are
+    }
+  }
   if (model === undefined) {
-    throw new Error(`unknown model ${JSON.stringify(id)} in the browser (known: ${[...models.keys()].join(", ") || "none"}); ` +
+    throw new Error(`unknown model ${JSON.stringify(id)} in the browser (known: ${modelIds().join(", ") || "none"}); ` +
       "rebuild the widget bundle after adding a model");
   }
   return model;
@@ -24,11 +35,21 @@ export function modelById(id: string): Model {
 type Builder = (id: string, options: Record<string, unknown>) => Model;
 let builder: Builder | null = null;
 const built = new Map<string, Model>();
+/** Ids the builder offers, listed on first need (listing builds every model once). */
+let listIds: (() => string[]) | null = null;
+let listed: string[] | null = null;
 
-/** How to build a model from its id and options (the bundle registers getModel). */
-export function registerModelBuilder(build: Builder): void {
+/**
+ * How to build a model from its id and options (the bundle registers getModel), and the ids it
+ * offers without options (`ids`, called once when first needed).
+ */
+export function registerModelBuilder(build: Builder, ids?: () => string[]): void {
   builder = build;
   built.clear();
+  if (ids) {
+    listIds = ids;
+    listed = null;
+  }
 }
 
 /**
@@ -46,7 +67,8 @@ export function modelFor(id: string, options: Record<string, unknown> | null | u
   return model;
 }
 
-/** Ids of every registered model, in registration order. */
+/** Ids of every registered model: the builder's in its order, then those registered one by one. */
 export function modelIds(): string[] {
-  return [...models.keys()];
+  if (listIds !== null && listed === null) listed = listIds();
+  return [...new Set([...(listed ?? []), ...models.keys()])];
 }

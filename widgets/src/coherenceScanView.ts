@@ -58,6 +58,10 @@ export class CoherenceScanView extends FigureView {
     void this.draw();
   }
 
+  protected redrawAll(): void {
+    void this.draw();
+  }
+
   private async draw(): Promise<void> {
     const get = (name: string) => (this.model.get(name) as ShapedArray<Float64Array> | null)?.data ?? null;
     const sep = get("separation");

@@ -66,6 +66,10 @@ export class ComparisonView extends FigureView {
     void this.draw(table);
   }
 
+  protected redrawAll(): void {
+    void this.draw(this.model.get("table") as ComparisonRow[]);
+  }
+
   private async draw(table: ComparisonRow[]): Promise<void> {
     const x = this.model.get("x") as ShapedArray<Float64Array> | null;
     const y = this.model.get("y") as ShapedArray<Float64Array> | null;

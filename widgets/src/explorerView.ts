@@ -17,7 +17,7 @@ import { readFitJson, type FitJson } from "../../src/report/results/fitJson.js";
 import { axis, baseLayout, FigureView } from "./figureView.js";
 import { ParamRow } from "./paramRow.js";
 import { effectiveMask, paramsForModel, paramVector, residuals, type ParamState } from "../shared/preview.js";
-import { drawOverlay } from "./overlay.js";
+import { drawOverlay, type OverlayBand, type OverlaySeries } from "./overlay.js";
 import { palette } from "./styles.js";
 import Plotly from "plotly.js-dist-min";
 
@@ -67,6 +67,11 @@ export class ExplorerView extends FigureView {
   private drawing = false;
   private removed = false;
   private overlay!: HTMLCanvasElement;
+  /** Canvas under the (transparent) plotly figure with the data markers. */
+  private dataLayer!: HTMLCanvasElement;
+  private usedY = new Float64Array(0);
+  private excludedY = new Float64Array(0);
+  private markerSize = 5;
   private pendingInputTime = 0;
   private localAbort: AbortController | null = null;
   private boundsOpen = false;
@@ -135,7 +140,8 @@ export class ExplorerView extends FigureView {
         this.paramsEl),
       h("div", { class: "fk-section" }, h("h4", {}, "Fit result"), this.resultEl));
     this.overlay = h("canvas", { class: "fk-overlay", "aria-hidden": "true" });
-    this.root.append(h("div", { class: "fk-body" }, h("div", { class: "fk-plotwrap" }, this.plotEl, this.overlay), side));
+    this.dataLayer = h("canvas", { class: "fk-datalayer", "aria-hidden": "true" });
+    this.root.append(h("div", { class: "fk-body" }, h("div", { class: "fk-plotwrap" }, this.dataLayer, this.plotEl, this.overlay), side));
 
     this.listenTo(this.model, "change:x change:y change:sigma change:mask change:counts", () => this.rebuildData());
     this.listenTo(this.model, "change:model_id change:model_choices", () => this.rebuildModel());
@@ -301,6 +307,22 @@ export class ExplorerView extends FigureView {
     this.el.dispatchEvent(new CustomEvent("fk-redraw", { detail: { since, done: performance.now() } }));
   }
 
+  /**
+   * Draw the data markers on the canvas under the figure, for the traces the legend shows
+   * (plotly keeps the same points as invisible traces for hover and box selection).
+   */
+  private paintData(): void {
+    const shown = (index: number) => (this.plotEl as unknown as { _fullData?: { visible?: unknown }[] })._fullData?.[index]?.visible === true;
+    const series: OverlaySeries[] = [];
+    if (shown(0)) series.push({ x: this.xShown, y: this.usedY, yaxis: "yaxis", color: palette.data, style: "markers", width: this.markerSize, opacity: 0.75 });
+    if (shown(1)) series.push({ x: this.xShown, y: this.excludedY, yaxis: "yaxis", color: palette.masked, style: "markers", width: this.markerSize });
+    // Masked ranges and the fit window are shaded here too, under their points.
+    const bands: OverlayBand[] = (this.model.get("masked_ranges") as [number, number][]).map(([a, b]) => ({ x0: a * this.xFactor, x1: b * this.xFactor, fill: palette.maskShade }));
+    const window = this.model.get("window") as [number, number] | null;
+    if (window) bands.push({ x0: window[0] * this.xFactor, x1: window[1] * this.xFactor, fill: palette.windowShade, outline: palette.fit });
+    drawOverlay(this.dataLayer, this.plotEl, series, bands);
+  }
+
   /** Draw the slider-driven model curve and residuals on the canvas layer. */
   private paintOverlay(): void {
     drawOverlay(this.overlay, this.plotEl, [
@@ -352,43 +374,57 @@ export class ExplorerView extends FigureView {
       usedY[i] = this.used[i] === 1 ? y.data[i] : NaN;
       excludedY[i] = this.used[i] === 1 ? NaN : y.data[i];
     }
+    this.usedY = usedY;
+    this.excludedY = excludedY;
     const fit = this.array("fit_curve");
     const yUnit = this.model.get("y_unit") as string;
     const markerSize = n > 3000 ? 2.5 : n > 800 ? 3.5 : 5;
+    this.markerSize = markerSize;
+    // The data and excluded points are painted on the canvas under the figure (paintData):
+    // plotly keeps them as invisible markers (one drawn, maxdisplayed) for hover, autorange and
+    // box selection, and a legend entry per group shows and hides them.
+    const hidden = { size: markerSize, opacity: 0, maxdisplayed: 1 };
     const data: Record<string, unknown>[] = [
-      { type: "scatter", mode: "markers", name: "data", x: this.xShown, y: usedY, marker: { color: palette.data, size: markerSize, opacity: 0.75 }, hoverinfo: "x+y" },
-      { type: "scatter", mode: "markers", name: "excluded", x: this.xShown, y: excludedY, marker: { color: palette.masked, size: markerSize }, showlegend: this.used.includes(0), hoverinfo: "skip" },
+      { type: "scatter", mode: "markers", name: "data", legendgroup: "data", showlegend: false, x: this.xShown, y: usedY, marker: { ...hidden, color: palette.data }, hoverinfo: "x+y" },
+      { type: "scatter", mode: "markers", name: "excluded", legendgroup: "excluded", showlegend: false, x: this.xShown, y: excludedY, marker: { ...hidden, color: palette.masked }, hoverinfo: "skip" },
       // Legend entries only: the live curve and residuals are painted on the canvas layer.
-      { type: "scatter", mode: "lines", name: "model (sliders)", x: [null], y: [null], line: { color: palette.model, width: 1.8 }, hoverinfo: "skip" },
-      { type: "scatter", mode: "lines", name: "fit", x: this.xShown, y: fit ? fit.data : [], line: { color: palette.fit, width: 1.5, dash: "dash" }, visible: fit ? true : "legendonly", showlegend: fit !== null, hoverinfo: "skip" },
+      { type: "scatter", mode: "lines", name: "model (sliders)", x: [null], y: [null], line: { color: palette.model, width: 1.8 }, hoverinfo: "skip", legendrank: 3 },
+      { type: "scatter", mode: "lines", name: "fit", x: this.xShown, y: fit ? fit.data : [], line: { color: palette.fit, width: 1.5, dash: "dash" }, visible: fit ? true : "legendonly", showlegend: fit !== null, hoverinfo: "skip", legendrank: 4 },
       { type: "scatter", mode: "markers", name: "residual", x: [null], y: [null], xaxis: "x", yaxis: "y2", marker: { color: palette.residual, size: 2.5 }, showlegend: false, hoverinfo: "skip" },
+      { type: "scatter", mode: "markers", name: "data", legendgroup: "data", x: [null], y: [null], marker: { color: palette.data, size: markerSize, opacity: 0.75 }, hoverinfo: "skip", legendrank: 1 },
+      { type: "scatter", mode: "markers", name: "excluded", legendgroup: "excluded", x: [null], y: [null], marker: { color: palette.masked, size: markerSize }, showlegend: this.used.includes(0), hoverinfo: "skip", legendrank: 2 },
     ];
-    const shapes: Record<string, unknown>[] = [];
-    for (const [a, b] of this.model.get("masked_ranges") as [number, number][]) {
-      shapes.push({ type: "rect", xref: "x", yref: "paper", x0: a * this.xFactor, x1: b * this.xFactor, y0: 0, y1: 1, fillcolor: palette.maskShade, line: { width: 0 }, layer: "below" });
-    }
-    const window = this.model.get("window") as [number, number] | null;
-    if (window) {
-      shapes.push({ type: "rect", xref: "x", yref: "paper", x0: window[0] * this.xFactor, x1: window[1] * this.xFactor, y0: 0, y1: 1, fillcolor: palette.windowShade, line: { color: palette.fit, width: 1, dash: "dot" }, layer: "below" });
-    }
     const residualLabel = residualAxisTitle(this.residualKind());
-    await this.drawFigure(data, baseLayout({
+    const drawn = await this.drawFigure(data, baseLayout({
+      // Room for the legend above and the axis titles: plotly draws the figure a second time
+      // when its axes push the margins out (automargin stays on for wider tick labels).
+      margin: { l: 70, r: 16, t: 52, b: 52 },
+      paper_bgcolor: "rgba(0,0,0,0)",
+      plot_bgcolor: "rgba(0,0,0,0)",
       dragmode: this.dragMode === "zoom" ? "zoom" : "select",
       selectdirection: "h",
       xaxis: axis(`position (${this.xLabel})`, { anchor: "y2" }),
       yaxis: axis(`intensity (${yUnit})`, { domain: [0.3, 1] }),
       yaxis2: axis(residualLabel, { domain: [0, 0.22], zeroline: true, range: this.residualRange() }),
-      shapes,
       uirevision: "keep",
       height: this.plotHeight(),
     }));
+    if (!drawn) return;
     const plot = this.plotEl as unknown as { removeAllListeners?: (e: string) => void; on: (e: string, f: (d: any) => void) => void };
     plot.removeAllListeners?.("plotly_selected");
     plot.removeAllListeners?.("plotly_afterplot");
     plot.on("plotly_selected", (event: { range?: { x?: [number, number] } } | undefined) => this.onSelected(event));
-    plot.on("plotly_afterplot", () => this.paintOverlay());
+    plot.on("plotly_afterplot", () => {
+      this.paintData();
+      this.paintOverlay();
+    });
+    this.paintData();
     this.paintOverlay();
     this.el.dispatchEvent(new CustomEvent("fk-redraw", { detail: { since: 0, done: performance.now() } }));
+  }
+
+  protected redrawAll(): void {
+    void this.redraw();
   }
 
   protected override resized(): void {

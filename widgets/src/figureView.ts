@@ -26,6 +26,8 @@ export abstract class FigureView extends DOMWidgetView {
   private exportError!: HTMLSpanElement;
   private plotted = false;
   private lastWidth = 0;
+  /** A draw was asked for before the view was in the page (no width yet): done when it gets one. */
+  private drawWhenShown = false;
 
   /** File name stem for exported images. */
   protected abstract exportName(): string;
@@ -46,6 +48,12 @@ export abstract class FigureView extends DOMWidgetView {
     this.el.append(this.root);
     this.resizeObserver = new ResizeObserver(() => {
       const width = this.plotEl.clientWidth;
+      if (width > 0 && this.drawWhenShown) {
+        this.drawWhenShown = false;
+        this.lastWidth = width;
+        this.redrawAll();
+        return;
+      }
       if (this.plotted && width > 0 && Math.abs(width - this.lastWidth) > 2) {
         this.lastWidth = width;
         this.resized();
@@ -59,12 +67,29 @@ export abstract class FigureView extends DOMWidgetView {
     void Plotly.Plots.resize(this.plotEl);
   }
 
-  /** Draw or redraw the whole figure. */
-  protected async drawFigure(data: Record<string, unknown>[], layout: Record<string, unknown>): Promise<void> {
-    const width = this.plotEl.clientWidth || 640;
-    this.lastWidth = width;
+  /** Draw everything from the model again (called when a draw put off by drawFigure can run). */
+  protected abstract redrawAll(): void;
+
+  /** True when the plot is in the page with a width, so plotly can lay it out at its real size. */
+  protected isShown(): boolean {
+    return this.plotEl.isConnected && this.plotEl.clientWidth > 0;
+  }
+
+  /**
+   * Draw or redraw the whole figure. A view is rendered before the widget manager puts it into
+   * the page: a figure drawn then would be laid out at a guessed size and drawn again at once
+   * when the view appears, so the draw is put off until the view has a width (redrawAll).
+   * @returns false when the draw was put off
+   */
+  protected async drawFigure(data: Record<string, unknown>[], layout: Record<string, unknown>): Promise<boolean> {
+    if (!this.isShown()) {
+      this.drawWhenShown = true;
+      return false;
+    }
+    this.lastWidth = this.plotEl.clientWidth;
     await Plotly.react(this.plotEl, data, { ...layout, width: undefined, autosize: true }, plotConfig);
     this.plotted = true;
+    return true;
   }
 
   /**

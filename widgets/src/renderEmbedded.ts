@@ -3,7 +3,7 @@
  * `<script type="application/vnd.jupyter.widget-state+json">` (schema v2) holds every model,
  * each `<script type="application/vnd.jupyter.widget-view+json">` marks where a view goes.
  */
-import { HTMLManager } from "@jupyter-widgets/html-manager/lib/htmlmanager.js";
+import type { ManagerBase } from "@jupyter-widgets/base-manager";
 import { checkBufferPaths } from "../shared/bufferPaths.js";
 import { MODULE_NAME } from "./version.js";
 
@@ -27,7 +27,7 @@ function ownState<T extends { state?: Record<string, { model_module?: string; bu
 }
 
 /** Render every embedded view under `root`; returns the number of views drawn. */
-export async function renderEmbedded(makeManager: () => HTMLManager, root: ParentNode = document): Promise<number> {
+export async function renderEmbedded(makeManager: () => ManagerBase & { display_view(view: any, el: HTMLElement): Promise<void> }, root: ParentNode = document): Promise<number> {
   let drawn = 0;
   for (const stateTag of Array.from(root.querySelectorAll('script[type="application/vnd.jupyter.widget-state+json"]'))) {
     const manager = makeManager();

@@ -41,7 +41,8 @@ const css = `
 @container (max-width: 760px) { .fk-body, .fk-body.fk-wide-side { grid-template-columns: minmax(0, 1fr); } }
 .fk-plot { min-height: 420px; width: 100%; }
 .fk-plotwrap { position: relative; min-width: 0; }
-.fk-overlay { position: absolute; left: 0; top: 0; pointer-events: none; }
+.fk-overlay, .fk-datalayer { position: absolute; left: 0; top: 0; pointer-events: none; }
+.fk-plotwrap > .fk-plot { position: relative; }
 .fk-side { display: flex; flex-direction: column; gap: 8px; min-width: 0; }
 .fk-section { border-top: 1px solid #e2e8f0; padding-top: 6px; }
 .fk-section h4 { margin: 0 0 4px; font-size: 12px; text-transform: uppercase; letter-spacing: 0.04em; color: ${palette.muted}; font-weight: 600; }

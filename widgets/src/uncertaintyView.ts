@@ -68,6 +68,10 @@ export class UncertaintyView extends FigureView {
     void this.draw();
   }
 
+  protected redrawAll(): void {
+    void this.draw();
+  }
+
   private async draw(): Promise<void> {
     const params = this.model.get("parameters") as ProfiledParameter[];
     const grid = this.model.get("grid") as ShapedArray<Float64Array> | null;
@@ -119,7 +123,8 @@ export class UncertaintyView extends FigureView {
   private async drawCorrelation(): Promise<void> {
     const names = this.model.get("free_names") as string[];
     const corr = this.model.get("correlation") as ShapedArray<Float64Array> | null;
-    if (!corr || names.length === 0) return;
+    // Not in the page yet: drawn with the rest when the view gets its width (redrawAll).
+    if (!corr || names.length === 0 || !this.isShown()) return;
     const k = names.length;
     const z: number[][] = [];
     const text: string[][] = [];

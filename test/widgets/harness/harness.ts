@@ -1,19 +1,17 @@
-// Test page: the ipywidgets HTML manager with no kernel, a loader that resolves fringekit's
-// widget module, and helpers to show widgets with simulated data (invented demo scenarios).
+// Test page: the offline pages' kernel-less widget manager (widgets/src/pageManager.ts), a loader
+// that resolves fringekit's widget module, and helpers to show widgets with simulated data (invented demo scenarios).
 import Plotly from "plotly.js-dist-min";
-import { HTMLManager } from "@jupyter-widgets/html-manager/lib/htmlmanager.js";
 import { getModel, paramVector, pixelPositions, simulateProfile } from "../../../src/physics/index.js";
 import { arrayToWire } from "../../../widgets/src/arrayWire.js";
+import { PageWidgetManager } from "../../../widgets/src/pageManager.js";
 import * as widgetModule from "../../../widgets/src/index.js";
 import { registerPhysicsModels } from "../../../widgets/src/registerPhysics.js";
 
 registerPhysicsModels();
 
-const manager = new HTMLManager({
-  loader: async (name: string) => {
-    if (name === widgetModule.MODULE_NAME) return widgetModule;
-    throw new Error(`test page: no module ${name}`);
-  },
+const manager = new PageWidgetManager(async (name: string) => {
+  if (name === widgetModule.MODULE_NAME) return widgetModule;
+  throw new Error(`test page: no module ${name}`);
 });
 
 const views = new Map<string, any>();

@@ -1,10 +1,11 @@
-// Offline renderer: one classic script (no AMD `define` seen) with the widget manager, the
-// widgets, plotly and the in-page fitter. Works when added before or after DOMContentLoaded.
-import { HTMLManager } from "@jupyter-widgets/html-manager/lib/htmlmanager.js";
+// Offline renderer: one classic script (no AMD `define` seen) with a kernel-less widget manager
+// (pageManager.ts), the widgets, plotly and the in-page fitter. Works when added before or after
+// DOMContentLoaded.
 import workerSource from "fringekit:fit-worker-source";
 import { ExplorerView } from "../explorerView.js";
 import * as widgets from "../index.js";
 import { workerFitter } from "../pageFitter.js";
+import { PageWidgetManager } from "../pageManager.js";
 import { registerPhysicsModels } from "../registerPhysics.js";
 import { renderEmbedded } from "../renderEmbedded.js";
 
@@ -17,7 +18,7 @@ const loader = async (name: string) => {
 };
 
 function start(): void {
-  renderEmbedded(() => new HTMLManager({ loader }))
+  renderEmbedded(() => new PageWidgetManager(loader))
     .then((count) => document.body.setAttribute("data-widgets-rendered", String(count)))
     .catch((error: unknown) => {
       document.body.setAttribute("data-widgets-error", String(error));
