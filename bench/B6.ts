@@ -19,7 +19,7 @@
 //     single-slit: width 0.02–0.3 mm, redrawn unless the envelope's first zero λL/a lies
 //       30 pixels to half a window from the centre.
 //     two-beam: beam waist 0.15–0.4 of the window.
-//     two-slit-broadband: bandwidth (FWHM) 2–15 nm, redrawn when the damping argument
+//     two-slit-broadband and two-slit-broadband-wavelength: bandwidth (FWHM) 2–15 nm, redrawn when the damping argument
 //       q = σk·d·s at the window's edge exceeds 3 (fringes gone over most of the window).
 //     two-slit-spectrum: a Gaussian-shaped table (31 samples over ±1.5 FWHM) of FWHM 2–15 nm,
 //       redrawn as for broadband.
@@ -95,7 +95,8 @@ function farFieldDraw(label: string, u: Uniform, seed: number): B6Case | null {
   let modelId = label;
   let modelOptions: Record<string, unknown> = {};
   let fwhm = 0;
-  if (label === "two-slit-broadband" || label === "two-slit-spectrum") {
+  const broadband = label === "two-slit-broadband" || label === "two-slit-broadband-wavelength";
+  if (broadband || label === "two-slit-spectrum") {
     fwhm = u(2e-9, 15e-9);
     // Damping argument at the window's edge: q = σk·d·s, σk = 2πΔλ/(λ²·2.3548).
     const q = ((2 * Math.PI * fwhm) / (wavelength * wavelength * 2 * Math.sqrt(2 * Math.LN2))) * separation * (0.5 * window / distance);
@@ -112,7 +113,7 @@ function farFieldDraw(label: string, u: Uniform, seed: number): B6Case | null {
     truth = { amplitude, background, center, width };
   } else if (label === "two-beam") {
     truth = { ...truth, separation, beamWaist: u(0.15, 0.4) * window };
-  } else if (label === "two-slit-broadband") {
+  } else if (broadband) {
     truth = { ...truth, separation, width: separation / ratio, bandwidth: fwhm };
   } else if (label === "two-slit-spectrum") {
     delete fix.wavelength;
@@ -148,7 +149,8 @@ function nearFieldCase(u: Uniform, seed: number): B6Case {
     const amplitude = u(200, 10000), background = amplitude * u(0.005, 0.05) + 2;
     const center = u(-0.1, 0.1) * pixels * pitch;
     const model = getModel("two-slit-fresnel");
-    const fix = { wavelength, distance, pixelWidth: pitch };
+    // The slit count is known to whoever built the slits: fixed, as for the n-slit cases.
+    const fix = { wavelength, distance, pixelWidth: pitch, slits: 2 };
     const truth = { amplitude, background, center, separation, width };
     const profile = simulateProfile(model, { ...truth, ...fix }, pixelPositions(pixels, pitch), { noise: "poisson", seed });
     return { label: "two-slit-fresnel", model, profile, fix, truth };
