@@ -11,7 +11,7 @@ import { readFileSync, renameSync, rmSync, statSync, writeFileSync } from "node:
 import path from "node:path";
 import { pruneCache } from "./codeCache.js";
 import { buildKernelSnapshot } from "./snapshotEntry.js";
-import { snapshotFiles, snapshotScripts, takeBuildLock, type SnapshotJob, type SnapshotMeta } from "./startSnapshot.js";
+import { blobHead, snapshotFiles, snapshotScripts, takeBuildLock, type SnapshotJob, type SnapshotMeta } from "./startSnapshot.js";
 
 /** Longest a build or its check may take before it counts as failed, ms. */
 const BUILD_TIMEOUT_MS = 180_000;
@@ -40,8 +40,9 @@ function build(job: SnapshotJob, jobFile: string): SnapshotMeta {
     const answer = (check.stdout ?? "").trim();
     if (check.status !== 0 || !answer.startsWith(`ok ${job.key} `)) return { ...meta, failed: `check of the built snapshot answered ${JSON.stringify(answer)} (exit ${check.status ?? check.signal})` };
     const blobBytes = statSync(temp).size;
+    const head = blobHead(temp);
     renameSync(temp, job.blob);
-    return { ...meta, blobBytes, files: Number(answer.split(" ")[2]) };
+    return { ...meta, blobBytes, head, files: Number(answer.split(" ")[2]) };
   } finally {
     rmSync(temp, { force: true });
     rmSync(entry, { force: true });

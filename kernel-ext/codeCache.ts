@@ -74,7 +74,7 @@ export function cacheFileName(modulePath: string): string {
  * fringekit's own cache files: code caches and start-up snapshots (with their description, lock
  * and job files) in this and earlier naming, and the temp files they are written through.
  */
-const OWN_CACHE_FILE = /^(?:typescript-[0-9a-f]{8}-[0-9a-f]{16}\.v8cache|typescript-[0-9a-f]{16}\.v8cache|kernel-[0-9a-f]{8}-[0-9a-f]{16}\.(?:blob|json|lock|entry\.js|blob\.job\.json))(\.\d+\.tmp)?$/;
+const OWN_CACHE_FILE = /^(?:[\w.@]+-[0-9a-f]{8}-[0-9a-f]{16}\.v8cache|typescript-[0-9a-f]{16}\.v8cache|kernel-[0-9a-f]{8}-[0-9a-f]{16}\.(?:blob|json|lock|entry\.js|blob\.job\.json))(\.\d+\.tmp)?$/;
 
 /**
  * Removes fringekit's cache files from `dir` that are no longer of use: files of the installation

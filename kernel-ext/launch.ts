@@ -9,7 +9,8 @@
  * the kernel (kernelMain.ts) starts in this process.
  *
  * `launch.js --check-snapshot KEY` (run by buildSnapshot.ts under `--snapshot-blob`) prints
- * `ok KEY FILES` when the snapshot's state is there and intact.
+ * `ok KEY FILES` when the snapshot's state is there and intact; `launch.js --snapshot-status`
+ * prints the blob a kernel would start from, or `none`.
  */
 import { spawn } from "node:child_process";
 import { rmSync } from "node:fs";
@@ -75,6 +76,11 @@ function main(argv: string[]): void {
     const ok = !!snapshot && snapshot.key === argv[1] && typeof (snapshot.typescript as { createSourceFile?: unknown }).createSourceFile === "function";
     process.stdout.write(ok ? `ok ${snapshot!.key} ${snapshot!.files.size}\n` : "no snapshot\n");
     process.exit(ok ? 0 : 1);
+  }
+  if (argv[0] === "--snapshot-status") {
+    const ts = typescriptPath();
+    process.stdout.write(`${(ts && !snapshotsDisabled() && usableSnapshot(cacheDir(), ts)) || "none"}\n`);
+    return;
   }
   const configPath = argv[0];
   if (!configPath) {

@@ -18,7 +18,7 @@
  */
 import { spawn } from "node:child_process";
 import { createHash } from "node:crypto";
-import { closeSync, mkdirSync, openSync, readFileSync, rmSync, statSync, writeFileSync } from "node:fs";
+import { closeSync, mkdirSync, openSync, readFileSync, readSync, rmSync, statSync, writeFileSync } from "node:fs";
 import { setPriority } from "node:os";
 import path from "node:path";
 import { fileURLToPath } from "node:url";
@@ -85,6 +85,8 @@ export interface SnapshotMeta {
   nodeVersion: string;
   /** Size of the blob, bytes (a partly written blob never matches). */
   blobBytes: number;
+  /** Its first bytes, hex: Node aborts on a blob whose header is damaged, so it is checked first. */
+  head?: string;
   files: number;
   /** Set instead of blobBytes when building failed: no new attempt for this KEY. */
   failed?: string;
@@ -111,11 +113,12 @@ export function snapshotScripts(): { entry: string; builder: string; launcher: s
 }
 
 /**
- * KEY of the snapshot for this Node and `typescriptPath`: the Node build, TypeScript's file and
- * the snapshot entry's file (path, size, modification time), and SNAPSHOT_FORMAT.
+ * KEY of the snapshot for this Node and `typescriptPath`: the Node build, NODE_OPTIONS (Node
+ * refuses a snapshot made under other V8 options), TypeScript's file and the snapshot entry's
+ * file (path, size, modification time), and SNAPSHOT_FORMAT.
  */
 export function snapshotKey(typescriptPath: string): string {
-  const parts = [String(SNAPSHOT_FORMAT), process.version, process.arch, process.execPath];
+  const parts = [String(SNAPSHOT_FORMAT), process.version, process.arch, process.execPath, process.env.NODE_OPTIONS ?? ""];
   for (const file of [typescriptPath, snapshotScripts().entry]) {
     const stat = statSync(file);
     parts.push(file, String(stat.size), String(stat.mtimeMs));
@@ -153,11 +156,25 @@ export function usableSnapshot(dir: string, typescriptPath: string): string | un
     const meta = readSnapshotMeta(dir, typescriptPath, key);
     if (!meta || meta.failed || !meta.blobBytes) return undefined;
     const { blob } = snapshotFiles(dir, typescriptPath, key);
-    if (statSync(blob).size !== meta.blobBytes) return undefined;
+    if (statSync(blob).size !== meta.blobBytes || blobHead(blob) !== meta.head) return undefined;
     markUsed(blob);
     return blob;
   } catch {
     return undefined;
+  }
+}
+
+/** Bytes of a blob's header compared before a kernel starts from it. */
+const HEAD_BYTES = 64;
+
+/** The first bytes of `blob` as hex (see SnapshotMeta.head). */
+export function blobHead(blob: string): string {
+  const fd = openSync(blob, "r");
+  try {
+    const head = Buffer.alloc(HEAD_BYTES);
+    return head.subarray(0, readSync(fd, head, 0, HEAD_BYTES, 0)).toString("hex");
+  } finally {
+    closeSync(fd);
   }
 }
 
