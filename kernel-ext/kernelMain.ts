@@ -20,6 +20,8 @@ const IOPUB_HIGH_WATER_MARK = 100_000;
  * start had none), ms: after start and a first cell, at low priority, not during them.
  */
 const CACHE_DELAY_MS = 3000;
+/** Delay of the second look at the snapshot's declaration files, after the first, ms. */
+const SNAPSHOT_RECHECK_MS = 60_000;
 
 const realStderr = process.stderr.write.bind(process.stderr);
 const log = (line: string) => void realStderr(`[fringekit kernel] ${line}\n`);
@@ -99,7 +101,12 @@ export function startFringekitKernel(configPath: string, start: KernelStartOptio
     // Once, when there was no usable cache: after start and a first cell have compiled the
     // type-checker's hot functions, so the next start finds them compiled (~3 MB file).
     tslab.saveCodeCache();
-    // Once, when no snapshot fits this start's declaration files (see startSnapshot.ts).
+    // When no snapshot fits this start's declaration files (see startSnapshot.ts); once more a
+    // minute later if the cells imported packages the snapshot lacks, so that the next start
+    // has their declarations parsed too (a first cell usually comes later than the first check).
     if (start.buildSnapshot && sourceFiles.needsBuild()) scheduleSnapshotBuild(dir, sourceFiles.buildJob(), log);
+    setTimeout(() => {
+      if (start.buildSnapshot && sourceFiles.needsBuild()) scheduleSnapshotBuild(dir, sourceFiles.buildJob(), log);
+    }, SNAPSHOT_RECHECK_MS).unref();
   }, CACHE_DELAY_MS).unref();
 }

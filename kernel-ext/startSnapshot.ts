@@ -98,9 +98,12 @@ export function currentSnapshot(): KernelSnapshot | undefined {
   return state && state.format === SNAPSHOT_FORMAT ? state : undefined;
 }
 
-/** Whether snapshots are turned off (FRINGEKIT_KERNEL_SNAPSHOT=0). */
+/**
+ * Whether snapshots are turned off: FRINGEKIT_KERNEL_SNAPSHOT=0, or on Windows (the launcher
+ * passes signals on to the kernel it starts, which Windows has not).
+ */
 export function snapshotsDisabled(env: NodeJS.ProcessEnv = process.env): boolean {
-  return env.FRINGEKIT_KERNEL_SNAPSHOT === "0";
+  return env.FRINGEKIT_KERNEL_SNAPSHOT === "0" || process.platform === "win32";
 }
 
 /** Compiled files of the snapshot machinery (dist/kernel-ext/...). */
@@ -214,6 +217,8 @@ export class SnapshotSourceFiles {
   private target: { typescriptPath: string; dir: string } | undefined;
   private firstFiles: string[] | undefined;
   private latest: ProgramLike | undefined;
+  /** The files of the job last handed out (a later build is only for files beyond them). */
+  private scheduled: Set<string> | undefined;
   private parseOptions: string | undefined;
 
   constructor(private readonly snapshot: KernelSnapshot | undefined) {
@@ -273,15 +278,23 @@ export class SnapshotSourceFiles {
     this.latest = program;
   }
 
-  /** Whether a new snapshot would serve the next start better (see needsBuildFor). */
+  /**
+   * Whether a new snapshot would serve the next start better: there is none, it missed a file
+   * of the first program, or the cells imported packages' declarations it lacks (after a job
+   * was handed out: declarations beyond that job's).
+   */
   needsBuild(): boolean {
     if (!this.firstFiles || !this.latest) return false;
-    if (!this.files) return true;
-    const files = this.files;
-    if (this.firstFiles.some((fileName) => !this.hits.has(fileName))) return true;
     // Declarations of packages the cells imported that the snapshot lacks (the notebook's own
     // files change too often to be worth a build).
-    return declarationFiles(this.latest).some((file) => !files.has(file.fileName) && file.fileName.includes("/node_modules/"));
+    const lacking = (has: (fileName: string) => boolean) =>
+      declarationFiles(this.latest!).some((file) => !has(file.fileName) && file.fileName.includes("/node_modules/"));
+    const scheduled = this.scheduled;
+    if (scheduled) return lacking((fileName) => scheduled.has(fileName));
+    const files = this.files;
+    if (!files) return true;
+    if (this.firstFiles.some((fileName) => !this.hits.has(fileName))) return true;
+    return lacking((fileName) => files.has(fileName));
   }
 
   /**
@@ -305,6 +318,7 @@ export class SnapshotSourceFiles {
       }
     }
     if (files.length === 0) return undefined;
+    this.scheduled = new Set(files.map((file) => file.fileName));
     try {
       const { typescriptPath, dir } = this.target;
       const key = snapshotKey(typescriptPath);
