@@ -15,6 +15,7 @@
 import { spawn } from "node:child_process";
 import { rmSync } from "node:fs";
 import { createRequire } from "node:module";
+import { constants } from "node:os";
 import path from "node:path";
 import { fileURLToPath } from "node:url";
 import { cacheDir } from "./codeCache.js";
@@ -59,8 +60,12 @@ function startFromSnapshot(blob: string, configPath: string, fallback: () => voi
   });
   const forward = (signal: NodeJS.Signals) => () => void child.kill(signal);
   for (const signal of FORWARDED_SIGNALS) process.on(signal, forward(signal));
+  let settled = false;
   const settle = (code: number | null, signal: NodeJS.Signals | null) => {
-    if (started) process.exit(code ?? 128 + (signal === "SIGKILL" ? 9 : 15));
+    if (settled) return;
+    settled = true;
+    // Exit as the kernel did (a signal's status as a shell reports it).
+    if (started) process.exit(code ?? 128 + (signal ? constants.signals[signal] : 1));
     for (const name of FORWARDED_SIGNALS) process.removeAllListeners(name);
     log(`the start-up snapshot did not start (${code ?? signal}); it is set aside and the kernel starts without it`);
     rmSync(blob, { force: true });
