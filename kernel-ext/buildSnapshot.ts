@@ -36,7 +36,11 @@ function build(job: SnapshotJob, jobFile: string): SnapshotMeta {
     writeFileSync(entry, `(${buildKernelSnapshot.toString()})(require, ${JSON.stringify(jobFile)});\n`);
     const made = spawnSync(process.execPath, ["--snapshot-blob", temp, "--build-snapshot", entry], { encoding: "utf8", timeout: BUILD_TIMEOUT_MS, stdio: ["ignore", "ignore", "pipe"] });
     if (made.status !== 0) return { ...meta, failed: `building exited with ${made.status ?? made.signal}: ${(made.stderr ?? "").trim().split("\n").slice(-3).join(" ")}` };
-    const check = spawnSync(process.execPath, ["--snapshot-blob", temp, scripts.launcher, "--check-snapshot", job.key], { encoding: "utf8", timeout: BUILD_TIMEOUT_MS, stdio: ["ignore", "pipe", "ignore"] });
+    // In a folder other than the build's (this process's), so a working directory remembered
+    // by the snapshot would show.
+    const check = spawnSync(process.execPath, ["--snapshot-blob", temp, scripts.launcher, "--check-snapshot", job.key], {
+      encoding: "utf8", timeout: BUILD_TIMEOUT_MS, stdio: ["ignore", "pipe", "ignore"], cwd: path.dirname(job.typescriptPath),
+    });
     const answer = (check.stdout ?? "").trim();
     if (check.status !== 0 || !answer.startsWith(`ok ${job.key} `)) return { ...meta, failed: `check of the built snapshot answered ${JSON.stringify(answer)} (exit ${check.status ?? check.signal})` };
     const blobBytes = statSync(temp).size;

@@ -72,13 +72,16 @@ function startFromSnapshot(blob: string, configPath: string, fallback: () => voi
     fallback();
   };
   child.on("error", () => settle(null, null));
-  child.on("exit", settle);
+  child.on("close", settle); // after its messages, unlike "exit"
 }
 
 function main(argv: string[]): void {
   const snapshot = currentSnapshot();
   if (argv[0] === "--check-snapshot") {
-    const ok = !!snapshot && snapshot.key === argv[1] && typeof (snapshot.typescript as { createSourceFile?: unknown }).createSourceFile === "function";
+    // TypeScript memoizes the working directory at its first use: it must not have been used
+    // while the snapshot was built (buildSnapshot.ts runs this check in another folder).
+    const ts = snapshot?.typescript as { createSourceFile?: unknown; sys?: { getCurrentDirectory(): string } } | undefined;
+    const ok = !!snapshot && snapshot.key === argv[1] && typeof ts?.createSourceFile === "function" && ts.sys?.getCurrentDirectory() === process.cwd();
     process.stdout.write(ok ? `ok ${snapshot!.key} ${snapshot!.files.size}\n` : "no snapshot\n");
     process.exit(ok ? 0 : 1);
   }

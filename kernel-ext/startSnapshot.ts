@@ -2,16 +2,17 @@
  * The kernel's start-up snapshot. Most of a kernel start went into tslab's type-checker parsing
  * the same declarations every time (ES2022's lib files and @types/node, ~3 MB, ~0.5 s). A Node
  * start-up snapshot (`node --build-snapshot`, Node's documented "Startup snapshot" API) holds
- * TypeScript for tslab already loaded and those declarations parsed and bound; a kernel started
- * with `node --snapshot-blob FILE` finds them in memory instead (deserializing the ~40 MB heap
- * takes ~0.2 s).
+ * TypeScript for tslab already loaded, those declarations and the ones the cells imported
+ * (fringekit's) parsed and bound, and the compiled code of a warm-up; a kernel started with
+ * `node --snapshot-blob FILE` (see launch.ts) finds them in memory instead (reading the ~50 MB
+ * snapshot takes ~0.25 s).
  *
  * - Built after a start that had no fitting snapshot, by a detached low-priority process
  *   (buildSnapshot.ts → snapshotEntry.ts), verified by starting Node from it, then renamed into
  *   place with a description file (`kernel-INSTALL-KEY.blob` and `.json` in the cache folder;
  *   INSTALL names the installation, see installationPrefix).
- * - KEY covers the Node build (version, arch, executable), TypeScript for tslab's file and this
- *   extension's snapshot code, so a blob is only given to the Node that made it.
+ * - KEY covers the Node build (version, arch, executable), NODE_OPTIONS, TypeScript for tslab's
+ *   file and this extension's snapshot code, so a blob is only given to a Node that can load it.
  * - Each declaration file is used only while its size and modification time are those parsed,
  *   and only under the same parse options; anything else is parsed as before.
  * - `FRINGEKIT_KERNEL_SNAPSHOT=0` turns it off (no build, no use).
