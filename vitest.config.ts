@@ -5,6 +5,8 @@ import { defineConfig } from "vitest/config";
 export default defineConfig({
   test: {
     include: ["test/**/*.test.ts"],
+    // Kernel caches go to a temporary folder for the run, not the home folder.
+    globalSetup: ["test/cacheDir.setup.ts"],
     testTimeout: 120_000,
     hookTimeout: 180_000,
     pool: "forks",

@@ -1,93 +1,121 @@
 /**
  * The fringekit kernel process: `node launch.js CONNECTION_FILE` (written into the kernelspec
- * by installKernelspec). Loads tslab 1.0.22's own server module, checks it is the pinned
- * version, installs fringekit's message handling into it and starts tslab's startKernel.
+ * by installKernelspec). When a verified start-up snapshot fits this Node and TypeScript (see
+ * startSnapshot.ts), the kernel runs in a child `node --snapshot-blob BLOB launch.js` (the
+ * snapshot cannot be chosen after Node has started), which this process watches: it forwards
+ * interrupt and termination signals, exits with the child's status, and the child exits when
+ * this process is gone. Should the child die before reporting that it started from the
+ * snapshot, the blob is set aside and the kernel starts here as it would without one. Otherwise
+ * the kernel (kernelMain.ts) starts in this process.
+ *
+ * `launch.js --check-snapshot KEY` (run by buildSnapshot.ts under `--snapshot-blob`) prints
+ * `ok KEY FILES` when the snapshot's state is there and intact; `launch.js --snapshot-status`
+ * prints the blob a kernel would start from, or `none`.
  */
-import { readFileSync } from "node:fs";
-import { FringekitKernel, type TslabServer } from "./server/kernel.js";
-import { loadTslab, type ExecutorConsole } from "./tslabPin.js";
+import { spawn } from "node:child_process";
+import { rmSync } from "node:fs";
+import { createRequire } from "node:module";
+import { constants } from "node:os";
+import path from "node:path";
+import { fileURLToPath } from "node:url";
 import { cacheDir } from "./codeCache.js";
-import { installRuntime } from "./runtime.js";
-import { registerWidgetControl } from "./widget/registry.js";
-import type { SendingSocket } from "./server/wire.js";
+import { currentSnapshot, snapshotBuildFailed, snapshotsDisabled, usableSnapshot, type KernelSnapshot } from "./startSnapshot.js";
 
-/** Messages iopub may queue per subscriber before dropping (bursts of output stay whole). */
-const IOPUB_HIGH_WATER_MARK = 100_000;
+/** Variable marking the child started from the snapshot (its value: the blob's path). */
+const CHILD_MARK = "FRINGEKIT_KERNEL_SNAPSHOT_CHILD";
+/** Message the child sends once it runs from the snapshot, before it opens any socket. */
+const STARTED = "fringekit-kernel-snapshot-started";
+/** Signals passed on to the child (interrupt, and the ways a frontend ends a kernel). */
+const FORWARDED_SIGNALS = ["SIGINT", "SIGTERM", "SIGHUP"] as const;
 
-/** Delay before writing TypeScript's code cache (only when a start had none), ms. */
-const CODE_CACHE_DELAY_MS = 3000;
+const log = (line: string) => void process.stderr.write(`[fringekit kernel] ${line}\n`);
 
-const realStderr = process.stderr.write.bind(process.stderr);
-const log = (line: string) => void realStderr(`[fringekit kernel] ${line}\n`);
-
-function packageVersion(): string {
+/** TypeScript for tslab as tslab resolves it, or undefined when it cannot be found. */
+function typescriptPath(): string | undefined {
   try {
-    return JSON.parse(readFileSync(new URL("../../package.json", import.meta.url), "utf8")).version ?? "unknown";
+    const require = createRequire(import.meta.url);
+    const tslabRoot = path.dirname(require.resolve("tslab/package.json"));
+    return require.resolve("@tslab/typescript-for-tslab", { paths: [tslabRoot] });
   } catch {
-    return "unknown";
+    return undefined; // loadTslab reports it properly
   }
 }
 
-function routeStdio(kernel: FringekitKernel): void {
-  for (const name of ["stdout", "stderr"] as const) {
-    const stream = process[name];
-    const original = stream.write.bind(stream);
-    stream.write = ((chunk: unknown, encoding?: unknown, callback?: unknown) => {
-      if (!kernel.ready) return original(chunk as string, encoding as BufferEncoding, callback as () => void);
-      const text = typeof chunk === "string" ? chunk : Buffer.from(chunk as Uint8Array).toString(typeof encoding === "string" ? (encoding as BufferEncoding) : "utf8");
-      kernel.writeStream(name, text);
-      const done = typeof encoding === "function" ? encoding : callback;
-      if (typeof done === "function") queueMicrotask(() => (done as () => void)());
-      return true;
-    }) as typeof stream.write;
-  }
+async function startHere(configPath: string, snapshot: KernelSnapshot | undefined, buildSnapshot: boolean): Promise<void> {
+  const { startFringekitKernel } = await import("./kernelMain.js");
+  startFringekitKernel(configPath, { snapshot, buildSnapshot });
 }
 
-/** Starts the kernel for the Jupyter connection file `configPath`. */
-export function launch(configPath: string): void {
-  const tslab = loadTslab(import.meta.url, {
-    resolvePackageExports: true,
-    globalTypes: process.env.FRINGEKIT_KERNEL_TYPES,
-    codeCacheDir: cacheDir(),
+/** Runs the kernel in a child started from `blob`; falls back to `fallback` if it cannot start. */
+function startFromSnapshot(blob: string, configPath: string, fallback: () => void): void {
+  const child = spawn(process.execPath, ["--snapshot-blob", blob, fileURLToPath(import.meta.url), configPath], {
+    // Its own process group: a signal to this kernel's group reaches it once, through here.
+    detached: true,
+    stdio: ["ignore", "inherit", "inherit", "ipc"],
+    env: { ...process.env, [CHILD_MARK]: blob },
   });
-  const kernel = new FringekitKernel(tslab, log, { implementation: "fringekit", implementationVersion: packageVersion() });
-
-  const createExecutor = tslab.executor.createExecutor;
-  tslab.executor.createExecutor = (rootDir: string, convs: unknown, _console: ExecutorConsole) =>
-    createExecutor(rootDir, convs, kernel.executorConsole);
-  // A PUB socket silently drops messages beyond its high-water mark (zeromq's default: 1000
-  // queued per subscriber), so a burst of outputs or widget updates would lose messages.
-  const bindSocket = tslab.jupyter.ZmqServer.prototype.bindSocket as (this: TslabServer, socket: unknown, port: number) => Promise<void>;
-  tslab.jupyter.ZmqServer.prototype.bindSocket = function (this: TslabServer, socket: { sendHighWaterMark?: number }, port: number) {
-    if (socket === this.iopub) socket.sendHighWaterMark = IOPUB_HIGH_WATER_MARK;
-    return bindSocket.call(this, socket, port);
+  let started = false;
+  child.on("message", (message) => {
+    if (message === STARTED) started = true;
+  });
+  const forward = (signal: NodeJS.Signals) => () => void child.kill(signal);
+  for (const signal of FORWARDED_SIGNALS) process.on(signal, forward(signal));
+  let settled = false;
+  const settle = (code: number | null, signal: NodeJS.Signals | null) => {
+    if (settled) return;
+    settled = true;
+    // Exit as the kernel did (a signal's status as a shell reports it).
+    if (started) process.exit(code ?? 128 + (signal ? constants.signals[signal] : 1));
+    for (const name of FORWARDED_SIGNALS) process.removeAllListeners(name);
+    log(`the start-up snapshot did not start (${code ?? signal}); it is set aside and the kernel starts without it`);
+    rmSync(blob, { force: true });
+    fallback();
   };
-  tslab.jupyter.ZmqServer.prototype.handleShellMessage = function (this: TslabServer, socket: SendingSocket, ...frames: Buffer[]) {
-    return kernel.handleFrames(this, socket, frames);
+  child.on("error", () => settle(null, null));
+  child.on("close", settle); // after its messages, unlike "exit"
+}
+
+function main(argv: string[]): void {
+  const snapshot = currentSnapshot();
+  if (argv[0] === "--check-snapshot") {
+    // TypeScript memoizes the working directory at its first use: it must not have been used
+    // while the snapshot was built (buildSnapshot.ts runs this check in another folder).
+    const ts = snapshot?.typescript as { createSourceFile?: unknown; sys?: { getCurrentDirectory(): string } } | undefined;
+    const ok = !!snapshot && snapshot.key === argv[1] && typeof ts?.createSourceFile === "function" && ts.sys?.getCurrentDirectory() === process.cwd();
+    process.stdout.write(ok ? `ok ${snapshot!.key} ${snapshot!.files.size}\n` : "no snapshot\n");
+    process.exit(ok ? 0 : 1);
+  }
+  if (argv[0] === "--snapshot-status") {
+    const ts = typescriptPath();
+    process.stdout.write(`${(ts && !snapshotsDisabled() && usableSnapshot(cacheDir(), ts)) || "none"}\n`);
+    return;
+  }
+  const configPath = argv[0];
+  if (!configPath) {
+    log("usage: node launch.js CONNECTION_FILE (Jupyter passes {connection_file})");
+    process.exit(2);
+  }
+  const fail = (error: unknown) => {
+    log((error as Error)?.message ?? String(error));
+    process.exit(1);
   };
-  // tslab's own `display` (import { display } from "tslab") publishes through this hook.
-  tslab.jupyter.lastWriteDisplayData = (data: Record<string, unknown>, update: boolean) =>
-    kernel.publish(update ? "update_display_data" : "display_data", data);
-
-  installRuntime(kernel.runtime);
-  registerWidgetControl();
-  routeStdio(kernel);
-  // tslab's own SIGINT handler interrupts an awaiting cell; this one aborts interruptSignal().
-  process.on("SIGINT", () => kernel.interrupt());
-  tslab.main.startKernel({ configPath, enableFindLocal: false, jsKernel: false, globalVersion: tslab.version });
-  // Once, when there was no usable cache: after start and a first cell have compiled the
-  // type-checker's hot functions, so the next start finds them compiled (~3 MB file).
-  setTimeout(() => tslab.saveCodeCache(), CODE_CACHE_DELAY_MS).unref();
+  if (process.env[CHILD_MARK]) {
+    // The child: tell the parent it runs from the snapshot; end with it (it may be killed).
+    delete process.env[CHILD_MARK];
+    process.send?.(STARTED);
+    process.on("disconnect", () => process.exit(0));
+    process.channel?.unref();
+    // Processes the kernel's cells start should not start from the snapshot too.
+    const at = process.execArgv.indexOf("--snapshot-blob");
+    if (at >= 0) process.execArgv.splice(at, 2);
+    startHere(configPath, snapshot, true).catch(fail);
+    return;
+  }
+  const dir = cacheDir();
+  const ts = snapshotsDisabled() ? undefined : typescriptPath();
+  const blob = ts ? usableSnapshot(dir, ts) : undefined;
+  if (blob) startFromSnapshot(blob, configPath, () => void startHere(configPath, undefined, false).catch(fail));
+  else startHere(configPath, undefined, !!ts && !snapshotBuildFailed(dir, ts)).catch(fail);
 }
 
-const configPath = process.argv[2];
-if (!configPath) {
-  log("usage: node launch.js CONNECTION_FILE (Jupyter passes {connection_file})");
-  process.exit(2);
-}
-try {
-  launch(configPath);
-} catch (error) {
-  log((error as Error)?.message ?? String(error));
-  process.exit(1);
-}
+main(process.argv.slice(2));

@@ -7,7 +7,8 @@ import { createHash } from "node:crypto";
 import { readFileSync } from "node:fs";
 import { createRequire } from "node:module";
 import path from "node:path";
-import { requireWithCodeCache } from "./codeCache.js";
+import { registerLoadedModule, requireWithCodeCache } from "./codeCache.js";
+import type { KernelSnapshot, SnapshotSourceFiles } from "./startSnapshot.js";
 
 /** The only tslab version the extension supports (package.json pins it exactly). */
 export const TSLAB_VERSION = "1.0.22";
@@ -68,9 +69,16 @@ export class TslabPinError extends Error {
  * @param fromUrl module URL to resolve tslab from (defaults to this file's URL)
  * @param options resolvePackageExports: adjust the kernel's compiler options (the launcher does);
  *   globalTypes: the FRINGEKIT_KERNEL_TYPES setting (see kernelGlobalTypes); codeCacheDir: load
- *   TypeScript through a V8 code cache kept in that folder (see codeCache.ts)
+ *   TypeScript through a V8 code cache kept in that folder (see codeCache.ts); snapshot: the
+ *   state of the start-up snapshot this process started from, whose TypeScript is used when it
+ *   is the file tslab resolves; sourceFiles: gives the type-checker the snapshot's parsed
+ *   declarations and records the programs made (see startSnapshot.ts; needs
+ *   resolvePackageExports)
  */
-export function loadTslab(fromUrl: string = import.meta.url, options: { resolvePackageExports?: boolean; globalTypes?: string; codeCacheDir?: string } = {}): TslabInternals {
+export function loadTslab(
+  fromUrl: string = import.meta.url,
+  options: { resolvePackageExports?: boolean; globalTypes?: string; codeCacheDir?: string; snapshot?: KernelSnapshot; sourceFiles?: SnapshotSourceFiles } = {},
+): TslabInternals {
   const require = createRequire(fromUrl);
   let packageJson: string;
   try {
@@ -86,8 +94,14 @@ export function loadTslab(fromUrl: string = import.meta.url, options: { resolveP
     if (got !== want) throw new TslabPinError(`tslab's ${file} differs from the released ${TSLAB_VERSION} (sha256 ${got})`);
   }
   const typescriptPath = require.resolve("@tslab/typescript-for-tslab", { paths: [root] });
-  const cached = options.codeCacheDir ? requireWithCodeCache(typescriptPath, options.codeCacheDir) : undefined;
-  if (options.resolvePackageExports) useBundlerResolution(require, typescriptPath, kernelGlobalTypes(options.globalTypes));
+  const fromSnapshot = !!options.snapshot && options.snapshot.typescriptPath === typescriptPath && !require.cache[typescriptPath];
+  if (fromSnapshot) registerLoadedModule(typescriptPath, options.snapshot!.typescript);
+  options.sourceFiles?.typescriptLoaded(fromSnapshot);
+  const cached = options.codeCacheDir && !fromSnapshot ? requireWithCodeCache(typescriptPath, options.codeCacheDir) : undefined;
+  if (options.resolvePackageExports) {
+    const hook = options.sourceFiles && options.codeCacheDir ? programHook(options.sourceFiles, typescriptPath, options.codeCacheDir) : undefined;
+    useBundlerResolution(require, typescriptPath, kernelGlobalTypes(options.globalTypes), hook);
+  }
   const internals: TslabInternals = {
     root,
     version,
@@ -160,9 +174,10 @@ export const KERNEL_WATCH_EXCLUDE = ["**/node_modules"];
  * createWatchCompilerHost, so the module it loads is swapped, before tslab loads it, for a view
  * that adjusts those options.
  */
-function useBundlerResolution(require: NodeJS.Require, typescriptPath: string, types: string[] | undefined): void {
+function useBundlerResolution(require: NodeJS.Require, typescriptPath: string, types: string[] | undefined, hook: ProgramHook | undefined): void {
   const real = require(typescriptPath) as Record<string, unknown> & {
     createWatchCompilerHost: (...args: unknown[]) => unknown;
+    createEmitAndSemanticDiagnosticsBuilderProgram: CreateProgram;
     ModuleResolutionKind: { Bundler: number };
   };
   const cached = require.cache[typescriptPath];
@@ -173,7 +188,9 @@ function useBundlerResolution(require: NodeJS.Require, typescriptPath: string, t
     const options: Record<string, unknown> = { ...compilerOptions, moduleResolution: real.ModuleResolutionKind.Bundler };
     if (types) options.types = types;
     const [system, createProgram, reportDiagnostic, reportWatchStatus] = rest;
-    return real.createWatchCompilerHost(rootFiles, options, system, createProgram, reportDiagnostic, reportWatchStatus, undefined, {
+    const create = (createProgram as CreateProgram | null | undefined) ?? real.createEmitAndSemanticDiagnosticsBuilderProgram;
+    hook?.compilerOptions(options);
+    return real.createWatchCompilerHost(rootFiles, options, system, hook ? hookedCreateProgram(real as unknown as TypeScriptApi, create, hook) : create, reportDiagnostic, reportWatchStatus, undefined, {
       excludeDirectories: KERNEL_WATCH_EXCLUDE,
     });
   };
@@ -187,3 +204,99 @@ function useBundlerResolution(require: NodeJS.Require, typescriptPath: string, t
 }
 
 const BUNDLER_VIEW = Symbol.for("fringekit.tslab.bundlerResolution");
+
+/** TypeScript's CreateProgram (a builder program factory), as tslab's watch host calls it. */
+type CreateProgram = (rootNames: readonly string[] | undefined, options: Record<string, unknown> | undefined, host: CompilerHostLike | undefined, oldProgram?: BuilderProgramLike, ...rest: unknown[]) => BuilderProgramLike;
+
+interface BuilderProgramLike {
+  getProgram(): ProgramLike;
+}
+
+interface ProgramLike {
+  getSourceFiles(): readonly { fileName: string; isDeclarationFile: boolean }[];
+}
+
+/** The watch program's compiler host, as far as the hook uses it. */
+interface CompilerHostLike {
+  getSourceFile(fileName: string, languageVersionOrOptions: unknown, ...rest: unknown[]): unknown;
+  getSourceFileByPath?(fileName: string, path: string, languageVersionOrOptions: unknown, ...rest: unknown[]): unknown;
+  fileExists(fileName: string): boolean;
+  hasInvalidatedResolutions?(path: string): boolean;
+  hasChangedAutomaticTypeDirectiveNames?(): boolean;
+}
+
+/** The parts of TypeScript (5.0, tslab's) the hook calls. */
+interface TypeScriptApi {
+  isProgramUptoDate(
+    program: ProgramLike, rootNames: readonly string[], options: Record<string, unknown>, getSourceVersion: (path: string, fileName: string) => string | undefined,
+    fileExists: (fileName: string) => boolean, hasInvalidatedResolutions: (path: string) => boolean, hasChangedAutomaticTypeDirectiveNames: (() => boolean) | undefined,
+    getParsedCommandLine: undefined, projectReferences: unknown,
+  ): boolean;
+  getEmitScriptTarget(options: Record<string, unknown>): number;
+  getSetExternalModuleIndicator(options: Record<string, unknown>): unknown;
+}
+
+/**
+ * What the kernel's type-checker asks of the start-up snapshot: parsed declaration files by
+ * name (undefined: parse as usual), the compiler options of each program, and each program made.
+ */
+export interface ProgramHook {
+  /** Whether it answers any file (else the program is left entirely to TypeScript). */
+  active(): boolean;
+  compilerOptions(options: Record<string, unknown>): void;
+  getSourceFile(fileName: string, languageVersionOrOptions: unknown): unknown;
+  programCreated(program: ProgramLike): void;
+}
+
+function programHook(sourceFiles: SnapshotSourceFiles, typescriptPath: string, dir: string): ProgramHook {
+  return {
+    active: () => sourceFiles.active(),
+    compilerOptions: (options) => sourceFiles.compilerOptions(options),
+    getSourceFile: (fileName, languageVersionOrOptions) => sourceFiles.get(fileName, languageVersionOrOptions),
+    programCreated: (program) => sourceFiles.programCreated(program, typescriptPath, dir),
+  };
+}
+
+/**
+ * Wraps tslab's program factory: the watch program's compiler host answers a declaration file
+ * the snapshot holds with the snapshot's SourceFile (the same object for every program, so
+ * TypeScript reuses it as it reuses unchanged files), and each program made is reported.
+ *
+ * The watch program asks for a new program only when its own cache of file versions says
+ * something changed, and that cache never sees the snapshot's files, so it would build a new
+ * program for every cell, even one that repeats the last (~20 ms). The old program is kept in
+ * that case, as the watch program itself keeps it: TypeScript's own isProgramUptoDate, with the
+ * snapshot's versions for its files and the watch cache's for the others.
+ */
+function hookedCreateProgram(ts: TypeScriptApi, create: CreateProgram, hook: ProgramHook): CreateProgram {
+  const hooked = new WeakSet<object>();
+  return (rootNames, options, host, oldProgram, ...rest) => {
+    if (host && !hooked.has(host)) {
+      hooked.add(host);
+      const getSourceFile = host.getSourceFile.bind(host);
+      host.getSourceFile = (fileName, languageVersionOrOptions, ...more) =>
+        hook.getSourceFile(fileName, languageVersionOrOptions) ?? getSourceFile(fileName, languageVersionOrOptions, ...more);
+      const getSourceFileByPath = host.getSourceFileByPath?.bind(host);
+      if (getSourceFileByPath) {
+        host.getSourceFileByPath = (fileName, filePath, languageVersionOrOptions, ...more) =>
+          hook.getSourceFile(fileName, languageVersionOrOptions) ?? getSourceFileByPath(fileName, filePath, languageVersionOrOptions, ...more);
+      }
+    }
+    if (oldProgram && host?.getSourceFileByPath && rootNames && options && hook.active()) {
+      const request = { languageVersion: ts.getEmitScriptTarget(options), impliedNodeFormat: undefined, setExternalModuleIndicator: ts.getSetExternalModuleIndicator(options) };
+      const versionOf = (filePath: string, fileName: string) =>
+        (host.getSourceFileByPath!(fileName, filePath, request, undefined, false) as { version?: string } | undefined)?.version;
+      const fileExists = (fileName: string) => host.fileExists(fileName);
+      const invalidated = (filePath: string) => host.hasInvalidatedResolutions?.(filePath) ?? false;
+      const unchanged = ts.isProgramUptoDate(oldProgram.getProgram(), rootNames, options, versionOf, fileExists, invalidated, host.hasChangedAutomaticTypeDirectiveNames?.bind(host), undefined, rest[1]);
+      if (unchanged) return oldProgram;
+    }
+    const program = create(rootNames, options, host, oldProgram, ...rest);
+    try {
+      hook.programCreated(program.getProgram());
+    } catch {
+      // only the next snapshot is affected
+    }
+    return program;
+  };
+}

@@ -1,10 +1,11 @@
 """B8 driver: notebook latency of Jupyter kernels through jupyter_client (Debian python3-jupyter-client).
 
 Usage: python3 kernel_latency.py JOB_JSON
-JOB_JSON: {"rounds": R, "trivial": N, "kernels": [{"name": kernelspec, "first": code, "trivial": code, "cwd": dir}]}
+JOB_JSON: {"rounds": R, "trivial": N, "hold": S, "kernels": [{"name": kernelspec, "first": code, "trivial": code, "cwd": dir}]}
 For each round and each kernel in turn (interleaved): start the kernel and wait until it answers
 kernel_info (start_new_kernel does that), run the first cell, then the trivial cell N times, each
-timed until its execute_reply; shut the kernel down. Prints one JSON object: name -> lists of seconds.
+timed until its execute_reply; keep the kernel S seconds more (default 0: a warm-up start that
+lets the kernel write its caches), then shut it down. Prints one JSON object: name -> lists of seconds.
 """
 import json
 import sys
@@ -34,6 +35,7 @@ def main():
                 out[k["name"]]["first"].append(run_cell(kc, k["first"]))
                 for _ in range(job["trivial"]):
                     out[k["name"]]["trivial"].append(run_cell(kc, k["trivial"]))
+                time.sleep(job.get("hold", 0))
             finally:
                 kc.stop_channels()
                 km.shutdown_kernel(now=False)
