@@ -9,12 +9,14 @@ import path from "node:path";
 import { decode } from "fast-png";
 import { afterAll, describe, expect, it } from "vitest";
 import { figureFonts } from "../../kernel-ext/figures/fonts.js";
-import { planRasterBands } from "../../kernel-ext/figures/rasterBands.js";
+import { openClips, planRasterBands } from "../../kernel-ext/figures/rasterBands.js";
 import { adler32Combine, sceneToPng } from "../../kernel-ext/figures/rasterize.js";
 import { getModel } from "../../src/physics/registry.js";
 import { pixelPositions, simulateProfile } from "../../src/physics/simulate.js";
 import { fitFigure } from "../../src/report/figures/fitFigure.js";
 import { figureScene } from "../../src/report/render/figureScene.js";
+import type { GroupItem, PathItem, Scene } from "../../src/report/render/scene.js";
+import { sceneToSvg } from "../../src/report/render/svg.js";
 import { resultAt } from "../report/figureExamples.js";
 
 const PYTHON = "/usr/bin/python3";
@@ -54,8 +56,10 @@ describe("planRasterBands(scene, width, height)", () => {
     expect(bands[0]!.rowStart).toBe(0);
     expect(bands[1]!.rowStart).toBe(bands[0]!.rows);
     expect(bands[0]!.rows + bands[1]!.rows).toBe(height);
-    // two clipped panels in the figure; each band's document draws one of them
-    expect(bands.map((b) => b.svg.match(/<clipPath/g)?.length)).toEqual([1, 1]);
+    // Each band's document draws one panel's markers: data (#7a7a7a) above, residuals (#2b2b2b) below.
+    const markers = (svg: string) => [...svg.matchAll(/<path d="([^"]{10000,})"[^>]*stroke="(#[0-9a-f]{6})"[^>]*stroke-linecap="round"/g)].map((m) => m[2]);
+    expect(markers(bands[0]!.svg)).toEqual(["#7a7a7a"]);
+    expect(markers(bands[1]!.svg)).toEqual(["#2b2b2b"]);
     for (const band of bands) expect(band.svg).toMatch(new RegExp(`^<svg [^>]*width="${width}" height="${band.rows}" viewBox="`));
   });
 
@@ -64,6 +68,31 @@ describe("planRasterBands(scene, width, height)", () => {
     expect(planRasterBands(scene, width, height, 1).length).toBe(1);
     const onePanel = { ...scene, items: scene.items.filter((item, i, all) => item.type !== "group" || all.findIndex((it) => it.type === "group") === i) };
     expect(planRasterBands(onePanel, width, height).length).toBe(1);
+  });
+});
+
+describe("openClips(items, background)", () => {
+  const panel = (clip: GroupItem["clip"], bounds: PathItem["bounds"], strokeWidth = 2): GroupItem =>
+    ({ type: "group", clip, items: [{ type: "path", d: "M0 0h1", stroke: "#000000", strokeWidth, cap: "round", join: "round", bounds }] });
+  const clip = { x: 10, y: 10, width: 100, height: 50 };
+
+  it("opens a panel that reaches 1 px past its clip and frames it with the background: the frame is the clip rectangle widened by the overflow + 1 px", () => {
+    const out = openClips([panel(clip, { x0: 10, y0: 10, x1: 110, y1: 60 })], "#ffffff");
+    expect(out.map((i) => i.type)).toEqual(["path", "path"]);
+    const frame = out[1] as PathItem;
+    expect(frame.fill).toBe("#ffffff");
+    // stroke 2 px, round: reaches 1 px past the points, frame 2 px wide (hand count)
+    expect(frame.d).toBe("M8 8H112V62H8ZM10 10V60H110V10Z");
+  });
+
+  it("keeps the clip when the drawing reaches far past it, when bounds are unknown, after a non-panel item, over an earlier panel, or on a transparent background", () => {
+    expect(openClips([panel(clip, { x0: -50, y0: 10, x1: 110, y1: 60 })], "#ffffff")[0]!.type).toBe("group");
+    expect(openClips([panel(clip, undefined)], "#ffffff")[0]!.type).toBe("group");
+    const text = { type: "text", x: 0, y: 0, runs: [], size: 10, color: "#000000", anchor: "start" } as const;
+    expect(openClips([text, panel(clip, { x0: 20, y0: 20, x1: 30, y1: 30 })], "#ffffff")[1]!.type).toBe("group");
+    const below = { x: 10, y: 60.5, width: 100, height: 50 }; // 0.5 px under the first panel: its frame (1 px) would cover it
+    expect(openClips([panel(clip, { x0: 20, y0: 20, x1: 30, y1: 30 }), panel(below, { x0: 20, y0: 70, x1: 30, y1: 80 })], "#ffffff").at(-1)!.type).toBe("group");
+    expect(openClips([panel(clip, { x0: 20, y0: 20, x1: 30, y1: 30 })], "none")[0]!.type).toBe("group");
   });
 });
 
@@ -107,6 +136,31 @@ print(len(raw), im.size[0], im.size[1], int(px[..., 0].astype(np.int64).sum()))`
     let ours = 0;
     for (let i = 0; i < a.data.length; i += 4) ours += a.data[i]!;
     expect(redSum).toBe(ours);
+  });
+});
+
+describe.skipIf(!haveFonts)("sceneToPng(scene, dpi) against resvg drawing the SVG file", () => {
+  it("gives the pixels resvg draws from the figure's own SVG (clip paths and all), up to antialiasing", async () => {
+    const { renderAsync } = await import("@resvg/resvg-js");
+    const { figureFonts: fonts } = await import("../../kernel-ext/figures/fonts.js");
+    const scene: Scene = figureScene(fitFigure4096());
+    const png = decode(await sceneToPng(scene, 300));
+    const W = png.width, H = png.height, s = Math.min(W / scene.width, H / scene.height);
+    const svg = sceneToSvg(scene, { width: W, height: H, viewBox: [-(W - scene.width * s) / 2 / s, -(H - scene.height * s) / 2 / s, W / s, H / s] });
+    expect(svg).toContain("<clipPath");
+    const f = fonts();
+    const reference = (await renderAsync(svg, { fitTo: { mode: "original" }, background: "#ffffff", font: { fontFiles: [f.regular, f.italic], loadSystemFonts: false, defaultFontFamily: "Liberation Sans" }, shapeRendering: 2, textRendering: 1 })).pixels;
+    expect(reference.length).toBe(png.data.length);
+    let large = 0, largest = 0;
+    for (let i = 0; i < reference.length; i++) {
+      const d = Math.abs(reference[i]! - png.data[i]!);
+      if (d > 8) large++;
+      largest = Math.max(largest, d);
+    }
+    // Edge pixels of the panels and of overlapping dots may differ by a few levels (antialiasing
+    // composited in another order); nothing more (common practice for rasteriser comparisons).
+    expect(large / reference.length).toBeLessThan(1e-4);
+    expect(largest).toBeLessThanOrEqual(40);
   });
 });
 

@@ -81,7 +81,10 @@ export function figureScene(figure: Pick<FigureSpec, "data" | "layout">): Scene 
     if (!group || key !== groupKey) {
       const x0 = Math.min(xa.p0, xa.p1), y0 = Math.min(ya.p0, ya.p1);
       group = { type: "group", clip: { x: x0, y: y0, width: Math.abs(xa.p1 - xa.p0), height: Math.abs(ya.p1 - ya.p0) }, items: [] };
-      if (bg.alpha > 0 && bg.hex !== "#ffffff") group.items.push({ type: "path", d: rectPath(x0, y0, group.clip.width, group.clip.height), fill: bg.hex });
+      if (bg.alpha > 0 && bg.hex !== "#ffffff") {
+        const c = group.clip;
+        group.items.push({ type: "path", d: rectPath(x0, y0, c.width, c.height), fill: bg.hex, bounds: { x0: c.x, y0: c.y, x1: c.x + c.width, y1: c.y + c.height } });
+      }
       items.push(group);
       groupKey = key;
     }
@@ -394,7 +397,7 @@ function tracePoints(trace: Loose, xa: Axis, ya: Axis): ([number, number] | null
  */
 const LINE_TOLERANCE = 0.02;
 
-function linePath(points: ([number, number] | null)[]): string {
+function linePath(points: ([number, number] | null)[]): PathBuilder {
   const p = new PathBuilder();
   let run: [number, number][] = [];
   const flush = () => {
@@ -406,7 +409,7 @@ function linePath(points: ([number, number] | null)[]): string {
     else flush();
   }
   flush();
-  return p.toString();
+  return p;
 }
 
 /**
@@ -471,7 +474,7 @@ function scatterItems(trace: Loose, xa: Axis, ya: Axis, before: Loose | undefine
       for (let i = lowerPts.length - 1; i >= 0; i--) p.line(lowerPts[i]![0], lowerPts[i]![1]);
       p.close();
       const c = parseColor(trace.fillcolor ?? "rgba(0,0,0,0.2)");
-      out.push({ type: "path", d: p.toString(), fill: c.hex, fillOpacity: c.alpha });
+      out.push({ type: "path", d: p.toString(), fill: c.hex, fillOpacity: c.alpha, bounds: p.bounds() });
     }
   }
   const error = trace.error_y as Loose | undefined;
@@ -487,12 +490,12 @@ function scatterItems(trace: Loose, xa: Axis, ya: Axis, before: Loose | undefine
       if (half > 0) p.move(pt[0] - half, top).line(pt[0] + half, top).move(pt[0] - half, bottom).line(pt[0] + half, bottom);
     });
     const c = parseColor(error.color ?? "#444444");
-    if (!p.empty) out.push({ type: "path", d: p.toString(), stroke: c.hex, strokeOpacity: c.alpha, strokeWidth: Number(error.thickness ?? 2) });
+    if (!p.empty) out.push({ type: "path", d: p.toString(), stroke: c.hex, strokeOpacity: c.alpha, strokeWidth: Number(error.thickness ?? 2), bounds: p.bounds() });
   }
   if (mode.includes("lines") && lineWidth > 0) {
     const c = parseColor(line.color ?? "#1f77b4");
-    const d = linePath(points);
-    if (d) out.push({ type: "path", d, stroke: c.hex, strokeOpacity: c.alpha, strokeWidth: lineWidth, dash: dashArray(line.dash, lineWidth), join: "round" });
+    const p = linePath(points);
+    if (!p.empty) out.push({ type: "path", d: p.toString(), stroke: c.hex, strokeOpacity: c.alpha, strokeWidth: lineWidth, dash: dashArray(line.dash, lineWidth), join: "round", bounds: p.bounds() });
   }
   if (mode.includes("markers")) {
     const marker = markerPath(trace.marker ?? {}, points.filter((p): p is [number, number] => p !== null));
@@ -510,11 +513,11 @@ function markerPath(marker: Loose, points: [number, number][]): PathItem | null 
     const h = size / 2;
     for (const [x, y] of points) p.move(x - h, y - h).line(x + h, y + h).move(x - h, y + h).line(x + h, y - h);
     const c = parseColor(marker.line?.color ?? marker.color ?? "#444444");
-    return { type: "path", d: p.toString(), stroke: c.hex, strokeOpacity: c.alpha, strokeWidth: Number(marker.line?.width ?? 1), cap: "butt" };
+    return { type: "path", d: p.toString(), stroke: c.hex, strokeOpacity: c.alpha, strokeWidth: Number(marker.line?.width ?? 1), cap: "butt", bounds: p.bounds() };
   }
   for (const [x, y] of points) p.dot(x, y);
   const c = parseColor(marker.color ?? "#1f77b4");
-  return { type: "path", d: p.toString(), stroke: c.hex, strokeOpacity: c.alpha, strokeWidth: size, cap: "round" };
+  return { type: "path", d: p.toString(), stroke: c.hex, strokeOpacity: c.alpha, strokeWidth: size, cap: "round", bounds: p.bounds() };
 }
 
 function rectPath(x: number, y: number, w: number, h: number): string {

@@ -21,6 +21,16 @@ export interface PathItem {
   /** Line ends: round ones also make the dots of circle markers (zero-length segments). */
   cap?: "butt" | "round";
   join?: "miter" | "round";
+  /** Box (px) of the path's points before stroking, when the builder knew it (the PNG writer uses it). */
+  bounds?: Bounds;
+}
+
+/** An axis-aligned box (px): x0 ≤ x1, y0 ≤ y1. */
+export interface Bounds {
+  x0: number;
+  y0: number;
+  x1: number;
+  y1: number;
 }
 
 /** One line of styled text with its anchor point (x, baseline y), optionally rotated about it (degrees, clockwise). */
@@ -90,6 +100,18 @@ export class PathBuilder {
   private cy = 0;
   private sx = 0;
   private sy = 0;
+  // Box of every point written, in tenths.
+  private minX = Infinity;
+  private minY = Infinity;
+  private maxX = -Infinity;
+  private maxY = -Infinity;
+
+  private extend(tx: number, ty: number): void {
+    if (tx < this.minX) this.minX = tx;
+    if (tx > this.maxX) this.maxX = tx;
+    if (ty < this.minY) this.minY = ty;
+    if (ty > this.maxY) this.maxY = ty;
+  }
 
   /** Start a subpath at (x, y) px. */
   move(x: number, y: number): this {
@@ -101,6 +123,7 @@ export class PathBuilder {
     }
     this.cx = tx; this.cy = ty;
     this.sx = tx; this.sy = ty;
+    this.extend(tx, ty);
     return this;
   }
 
@@ -112,6 +135,7 @@ export class PathBuilder {
     else if (dx === 0) this.parts.push(`v${tenths(dy)}`);
     else this.parts.push(`l${tenths(dx)}${dy < 0 ? "" : " "}${tenths(dy)}`);
     this.cx = tx; this.cy = ty;
+    this.extend(tx, ty);
     return this;
   }
 
@@ -127,6 +151,12 @@ export class PathBuilder {
     this.parts.push("z");
     this.cx = this.sx; this.cy = this.sy;
     return this;
+  }
+
+  /** Box (px) of the points written so far (as rounded in the path), or undefined for an empty path. */
+  bounds(): Bounds | undefined {
+    if (this.minX > this.maxX) return undefined;
+    return { x0: this.minX / 10, y0: this.minY / 10, x1: this.maxX / 10, y1: this.maxY / 10 };
   }
 
   get empty(): boolean {
