@@ -221,7 +221,7 @@ export async function main(): Promise<void> {
     total += count; successes += ok;
     if (rate < worst.rate) worst = { label, rate };
   }
-  process.stdout.write(`B6 run time ${((performance.now() - t0) / 1000).toFixed(0)} s (measured under load)\n`);
+  process.stdout.write(`B6 run time ${((performance.now() - t0) / 1000).toFixed(0)} s (load average ${loadavg()[0].toFixed(2)} at the end)\n`);
   process.stdout.write(`B6 blind-start success ${((100 * successes) / total).toFixed(1)}% (${successes}/${total}); worst model ${worst.label} ${worst.rate.toFixed(1)}%\n`);
 }
 

@@ -58,7 +58,7 @@ export async function main(): Promise<void> {
     process.stdout.write(`B7 files: fringekit ${sizes("fringekit")}; matplotlib ${sizes("matplotlib")}\n`);
     const svgKb = statSync(join(work, "fringekit.svg")).size / 1024;
     const a = median(fk), b = median(mpl);
-    process.stdout.write(`B7 measured under load (loadavg ${load()}); medians of ${ROUNDS}; CPU time ratio ${(median(fkCpu) / median(mplCpu)).toFixed(2)} (fringekit ${median(fkCpu).toFixed(2)} s, matplotlib ${median(mplCpu).toFixed(2)} s)\n`);
+    process.stdout.write(`B7 load average ${load()}; medians of ${ROUNDS}; CPU time ratio ${(median(fkCpu) / median(mplCpu)).toFixed(2)} (fringekit ${median(fkCpu).toFixed(2)} s, matplotlib ${median(mplCpu).toFixed(2)} s)\n`);
     process.stdout.write(`B7 figure export ratio ${(a / b).toFixed(2)} (fringekit ${a.toFixed(2)} s, matplotlib ${b.toFixed(2)} s; svg ${svgKb.toFixed(0)} KB)\n`);
   } finally {
     rmSync(work, { recursive: true, force: true });

@@ -83,7 +83,7 @@ export async function main(): Promise<void> {
     for (const name of Object.keys(t)) {
       process.stdout.write(`B8 ${name}: start ${m(name, "start").toFixed(2)} s, first cell ${m(name, "first").toFixed(2)} s, trivial cell ${(m(name, "trivial") * 1000).toFixed(0)} ms\n`);
     }
-    process.stdout.write(`B8 measured under load (loadavg ${load()}); fringekit start over plain tslab ${(m("fringekit", "start") / m("tslab-plain", "start")).toFixed(2)}, trivial cell over plain tslab ${(m("fringekit", "trivial") / m("tslab-plain", "trivial")).toFixed(2)}\n`);
+    process.stdout.write(`B8 load average ${load()}; fringekit start over plain tslab ${(m("fringekit", "start") / m("tslab-plain", "start")).toFixed(2)}, trivial cell over plain tslab ${(m("fringekit", "trivial") / m("tslab-plain", "trivial")).toFixed(2)}\n`);
     const r = (key: "start" | "first" | "trivial") => (m("fringekit", key) / m("python3", key)).toFixed(2);
     process.stdout.write(`B8 kernel start ratio ${r("start")}, first cell ratio ${r("first")}, trivial cell ratio ${r("trivial")} (${(m("fringekit", "trivial") * 1000).toFixed(0)} ms)\n`);
   } finally {

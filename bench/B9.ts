@@ -69,7 +69,7 @@ export async function main(): Promise<void> {
       process.stdout.write(`B9 round ${round + 1}: help ${t.fkHelp[round]!.toFixed(2)} s vs ${t.pyHelp[round]!.toFixed(2)} s, fit ${t.fkFit[round]!.toFixed(2)} s vs ${t.pyFit[round]!.toFixed(2)} s${base} (loadavg ${load()})\n`);
     }
     const [fh, ph, ff, pf] = [median(t.fkHelp), median(t.pyHelp), median(t.fkFit), median(t.pyFit)];
-    process.stdout.write(`B9 measured under load (loadavg ${load()}); medians of ${ROUNDS}; fringekit help ${fh.toFixed(2)} s, fit ${ff.toFixed(2)} s; python import ${ph.toFixed(2)} s, SciPy fit ${pf.toFixed(2)} s\n`);
+    process.stdout.write(`B9 load average ${load()}; medians of ${ROUNDS}; fringekit help ${fh.toFixed(2)} s, fit ${ff.toFixed(2)} s; python import ${ph.toFixed(2)} s, SciPy fit ${pf.toFixed(2)} s\n`);
     if (baseBin) {
       const [bh, bf] = [median(t.baseHelp), median(t.baseFit)];
       process.stdout.write(`B9 baseline ${baseline}: help ${bh.toFixed(2)} s, fit ${bf.toFixed(2)} s; ratio ${((bh + bf) / (ph + pf)).toFixed(2)} (help ${(bh / ph).toFixed(2)}, fit ${(bf / pf).toFixed(2)})\n`);
