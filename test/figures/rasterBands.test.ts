@@ -15,7 +15,7 @@ import { getModel } from "../../src/physics/registry.js";
 import { pixelPositions, simulateProfile } from "../../src/physics/simulate.js";
 import { fitFigure } from "../../src/report/figures/fitFigure.js";
 import { figureScene } from "../../src/report/render/figureScene.js";
-import type { GroupItem, PathItem, Scene } from "../../src/report/render/scene.js";
+import type { GroupItem, PathItem, Scene, TextItem } from "../../src/report/render/scene.js";
 import { sceneToSvg } from "../../src/report/render/svg.js";
 import { resultAt } from "../report/figureExamples.js";
 
@@ -88,7 +88,7 @@ describe("openClips(items, background)", () => {
   it("keeps the clip when the drawing reaches far past it, when bounds are unknown, after a non-panel item, over an earlier panel, or on a transparent background", () => {
     expect(openClips([panel(clip, { x0: -50, y0: 10, x1: 110, y1: 60 })], "#ffffff")[0]!.type).toBe("group");
     expect(openClips([panel(clip, undefined)], "#ffffff")[0]!.type).toBe("group");
-    const text = { type: "text", x: 0, y: 0, runs: [], size: 10, color: "#000000", anchor: "start" } as const;
+    const text: TextItem = { type: "text", x: 0, y: 0, runs: [], size: 10, color: "#000000", anchor: "start" };
     expect(openClips([text, panel(clip, { x0: 20, y0: 20, x1: 30, y1: 30 })], "#ffffff")[1]!.type).toBe("group");
     const below = { x: 10, y: 60.5, width: 100, height: 50 }; // 0.5 px under the first panel: its frame (1 px) would cover it
     expect(openClips([panel(clip, { x0: 20, y0: 20, x1: 30, y1: 30 }), panel(below, { x0: 20, y0: 70, x1: 30, y1: 80 })], "#ffffff").at(-1)!.type).toBe("group");
