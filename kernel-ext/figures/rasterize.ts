@@ -1,5 +1,5 @@
 /**
- * PNG from the figure SVG with resvg (@resvg/resvg-js, its platform binary ships in the npm
+ * PNG of a figure scene with resvg (@resvg/resvg-js, its platform binary ships in the npm
  * package), at a chosen resolution, fonts from figureFonts(); the dpi is recorded in pHYs.
  */
 import { existsSync } from "node:fs";
@@ -21,7 +21,7 @@ let renderAsync: RenderAsync | undefined;
 
 /**
  * Load resvg (its native binary: tens of milliseconds). saveFigure calls this first, so that
- * svgToPng hands the drawing to resvg's thread at once and the PDF is written meanwhile.
+ * sceneToPng hands the drawing to resvg's threads at once and the PDF is written meanwhile.
  */
 export async function loadRasterizer(): Promise<void> {
   renderAsync ??= directBinding() ?? (await import("@resvg/resvg-js")).renderAsync;
@@ -54,27 +54,16 @@ function directBinding(): RenderAsync | undefined {
  */
 const PNG_LEVEL = 3;
 
-/** resvg's options for drawing `width` px wide with the figure fonts. */
-function renderOptions(width: number, zoomToWidth: boolean) {
+/** resvg's options for drawing a band document at its own pixel size with the figure fonts. */
+function renderOptions() {
   const fonts = figureFonts();
   return {
-    fitTo: zoomToWidth ? { mode: "width" as const, value: width } : { mode: "original" as const },
+    fitTo: { mode: "original" as const },
     background: "#ffffff",
     font: { fontFiles: [fonts.regular, fonts.italic], loadSystemFonts: false, defaultFontFamily: "Liberation Sans", sansSerifFamily: "Liberation Sans" },
     shapeRendering: 2 as const,
     textRendering: 1 as const,
   };
-}
-
-/**
- * Rasterise `svg` (sized in mm) to PNG bytes at `dpi`: width = widthMm / 25.4 × dpi pixels.
- * @param widthMm physical width of the figure (mm)
- */
-export async function svgToPng(svg: string, widthMm: number, dpi: number): Promise<Uint8Array> {
-  if (!renderAsync) await loadRasterizer();
-  // renderAsync draws on a worker thread, so a PDF can be written meanwhile.
-  const image = await renderAsync!(svg, renderOptions(Math.round((widthMm / 25.4) * dpi), true));
-  return setPngDpi(await encodePng(image.pixels, image.width, image.height), dpi);
 }
 
 /**
@@ -92,7 +81,7 @@ export async function sceneToPng(scene: Scene, dpi: number, maxBands = Math.min(
   const height = Math.max(1, Math.round((width * scene.heightMm) / scene.widthMm));
   const bands = planRasterBands(scene, width, height, maxBands);
   const drawn = await Promise.all(bands.map(async (band) => {
-    const image = await renderAsync!(band.svg, renderOptions(width, false));
+    const image = await renderAsync!(band.svg, renderOptions());
     if (image.width !== width || image.height !== band.rows) throw new Error(`PNG band drawn ${image.width} × ${image.height} px, expected ${width} × ${band.rows}`);
     const pixels = image.pixels;
     return { pixels, piece: await compressRows(pixels, width, band.rows) };

@@ -35,7 +35,7 @@ export async function saveFigure(figure: FigureSpec, basePath: string, options: 
   const base = basePath.replace(/\.(svg|pdf|png)$/i, "");
   await mkdir(path.dirname(path.resolve(base)), { recursive: true });
   const renderer = await FigureRenderer.start();
-  // A rasteriser that fails to load fails the PNG alone (in svgToPng), as before.
+  // A rasteriser that fails to load fails the PNG alone (in sceneToPng), as before.
   if (formats.includes("png")) await loadRasterizer().catch(() => undefined);
   try {
     // All formats at once, the PNG first: resvg draws it on a worker thread while the PDF is
