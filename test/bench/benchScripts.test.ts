@@ -2,13 +2,13 @@
  * The benchmark scripts still load and run: a bench that fails to import (an export renamed or
  * moved between entry points) is caught here, on tiny inputs, without timing anything.
  */
+import { figureFontsInstalled } from "../figures/fontsInstalled.js";
 import { spawnSync } from "node:child_process";
 import { existsSync, mkdtempSync, readdirSync, readFileSync, rmSync, writeFileSync } from "node:fs";
 import { tmpdir } from "node:os";
 import path from "node:path";
 import { fileURLToPath } from "node:url";
 import { afterAll, describe, expect, it } from "vitest";
-import { figureFonts } from "../../kernel-ext/figures/fonts.js";
 
 const ROOT = path.resolve(path.dirname(fileURLToPath(import.meta.url)), "../..");
 const BENCH = path.join(ROOT, "bench");
@@ -22,14 +22,7 @@ describe("bench/", () => {
   }
 });
 
-const haveFonts = (() => {
-  try {
-    return Boolean(figureFonts());
-  } catch {
-    return false;
-  }
-})();
-if (!haveFonts) console.warn("SKIPPED: bench/figureExport.mjs smoke test (Debian fonts-liberation not installed)");
+const haveFonts = figureFontsInstalled("bench/figureExport.mjs smoke test");
 
 describe.skipIf(!haveFonts)("bench/figureExport.mjs (B7's fringekit side)", () => {
   const work = mkdtempSync(path.join(tmpdir(), "fringekit-b7-smoke-"));

@@ -2,6 +2,7 @@
 // compressed pieces into one zlib stream. Checked from outside: Python's zlib module (the zlib
 // library; it verifies the stream's Adler-32, RFC 1950 §2.2) and Pillow (Debian python3-pil)
 // read the files; the pixels are compared with one drawing of the whole figure.
+import { figureFontsInstalled } from "./fontsInstalled.js";
 import { spawnSync } from "node:child_process";
 import { mkdtempSync, rmSync, writeFileSync } from "node:fs";
 import { tmpdir } from "node:os";
@@ -21,13 +22,7 @@ import { resultAt } from "../report/figureExamples.js";
 
 const PYTHON = "/usr/bin/python3";
 const havePython = spawnSync(PYTHON, ["-c", "import zlib, PIL, numpy"], { stdio: "ignore" }).status === 0;
-const haveFonts = (() => {
-  try {
-    return Boolean(figureFonts());
-  } catch {
-    return false;
-  }
-})();
+const haveFonts = figureFontsInstalled("PNG band drawing tests");
 if (!havePython) console.warn("SKIPPED: PNG checks against Python's zlib and Pillow (apt-get install python3-pil python3-numpy)");
 
 /** A camera line as B1 has it: 4096 pixels of a two-slit pattern with Poisson noise, "fitted" at the truth. */
@@ -142,13 +137,12 @@ print(len(raw), im.size[0], im.size[1], int(px[..., 0].astype(np.int64).sum()))`
 describe.skipIf(!haveFonts)("sceneToPng(scene, dpi) against resvg drawing the SVG file", () => {
   it("gives the pixels resvg draws from the figure's own SVG (clip paths and all), up to antialiasing", async () => {
     const { renderAsync } = await import("@resvg/resvg-js");
-    const { figureFonts: fonts } = await import("../../kernel-ext/figures/fonts.js");
     const scene: Scene = figureScene(fitFigure4096());
     const png = decode(await sceneToPng(scene, 300));
     const W = png.width, H = png.height, s = Math.min(W / scene.width, H / scene.height);
     const svg = sceneToSvg(scene, { width: W, height: H, viewBox: [-(W - scene.width * s) / 2 / s, -(H - scene.height * s) / 2 / s, W / s, H / s] });
     expect(svg).toContain("<clipPath");
-    const f = fonts();
+    const f = figureFonts();
     const reference = (await renderAsync(svg, { fitTo: { mode: "original" }, background: "#ffffff", font: { fontFiles: [f.regular, f.italic], loadSystemFonts: false, defaultFontFamily: "Liberation Sans" }, shapeRendering: 2, textRendering: 1 })).pixels;
     expect(reference.length).toBe(png.data.length);
     let large = 0, largest = 0;

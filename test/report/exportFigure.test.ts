@@ -1,4 +1,5 @@
 import { existsSync, mkdirSync, mkdtempSync, readdirSync, readFileSync, rmSync, writeFileSync } from "node:fs";
+import { figureFontsInstalled } from "../figures/fontsInstalled.js";
 import { tmpdir } from "node:os";
 import path from "node:path";
 import { fileURLToPath } from "node:url";
@@ -6,7 +7,6 @@ import { decode } from "fast-png";
 import pixelmatch from "pixelmatch";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { exportFigure, FigureRenderer, formatFromPath } from "../../kernel-ext/figures/exportFigure.js";
-import { figureFonts } from "../../kernel-ext/figures/fonts.js";
 import { figureScene } from "../../src/report/render/figureScene.js";
 import type { SceneItem } from "../../src/report/render/scene.js";
 import { exampleFigures } from "./renderExamples.js";
@@ -17,14 +17,7 @@ const SNAPSHOTS = path.join(HERE, "snapshots");
 const SNAPSHOT_DPI = 96;
 /** Allowed share of differing pixels (anti-aliasing and font hinting vary slightly between runs). */
 const MAX_DIFF_SHARE = 0.01;
-const haveFonts = (() => {
-  try {
-    return Boolean(figureFonts());
-  } catch {
-    return false;
-  }
-})();
-if (!haveFonts) console.warn("SKIPPED: figure export tests (Debian fonts-liberation not installed)");
+const haveFonts = figureFontsInstalled("figure export tests");
 
 /** Every text line a scene draws, as plain text, in drawing order. */
 function sceneTexts(items: SceneItem[]): string[] {
