@@ -82,7 +82,13 @@ export function startFringekitKernel(configPath: string, start: KernelStartOptio
   const bindSocket = tslab.jupyter.ZmqServer.prototype.bindSocket as (this: TslabServer, socket: unknown, port: number) => Promise<void>;
   tslab.jupyter.ZmqServer.prototype.bindSocket = function (this: TslabServer, socket: { sendHighWaterMark?: number }, port: number) {
     if (socket === this.iopub) socket.sendHighWaterMark = IOPUB_HIGH_WATER_MARK;
-    return bindSocket.call(this, socket, port);
+    // tslab only logs a failed bind and keeps running, deaf on that socket: the frontend then
+    // waits for a kernel that never answers. Exit instead, so it sees the kernel die at once.
+    return bindSocket.call(this, socket, port).catch((error: { code?: string; message?: string }) => {
+      const why = error?.code === "EADDRINUSE" ? "the address is already in use (another process took the port)" : error?.message ?? String(error);
+      log(`cannot listen on port ${port} of the connection file: ${why}; the kernel stops. Start it again: the frontend writes new ports.`);
+      process.exit(1);
+    });
   };
   tslab.jupyter.ZmqServer.prototype.handleShellMessage = function (this: TslabServer, socket: SendingSocket, ...frames: Buffer[]) {
     return kernel.handleFrames(this, socket, frames);
