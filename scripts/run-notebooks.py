@@ -5,6 +5,11 @@ Each executed notebook is written to OUT_DIR under the same name (written to a t
 file first, then renamed). Two notebooks run at a time (FRINGEKIT_DEMO_JOBS sets how many).
 Progress goes to stdout, one line per cell. Exit status 1 when a notebook fails; the partly
 executed notebook is still written so the failure can be read.
+
+Kernels are started one at a time (a lock shared by the workers, held until the kernel
+answers): jupyter_client picks free ports by binding and releasing them, so two kernels
+started at once in two processes can be given the same port. A kernel that dies or does not
+answer before its first cell is started once more.
 """
 import multiprocessing
 import os
@@ -16,7 +21,49 @@ from nbclient import NotebookClient
 from nbclient.exceptions import CellExecutionError
 
 
+_START_LOCK = None
+
+
+def _share_start_lock(lock) -> None:  # Pool initializer
+    global _START_LOCK
+    _START_LOCK = lock
+
+
+class _OneStartAtATime(NotebookClient):
+    """Holds the shared start lock from choosing the kernel's ports until the kernel answers."""
+
+    _holds_lock = False
+
+    async def async_start_new_kernel(self, **kwargs):
+        if _START_LOCK is not None:
+            _START_LOCK.acquire()
+            self._holds_lock = True
+        try:
+            return await super().async_start_new_kernel(**kwargs)
+        except BaseException:
+            self._release_start_lock()
+            raise
+
+    async def async_start_new_kernel_client(self):
+        try:
+            return await super().async_start_new_kernel_client()
+        finally:
+            self._release_start_lock()
+
+    def _release_start_lock(self) -> None:
+        # Only the holder releases: another worker may hold the lock by now.
+        if self._holds_lock:
+            self._holds_lock = False
+            _START_LOCK.release()
+
+
 def run(path: str, out_dir: str) -> bool:
+    ok = run_once(path, out_dir, last_try=False)
+    return ok if ok is not None else bool(run_once(path, out_dir, last_try=True))
+
+
+def run_once(path: str, out_dir: str, last_try: bool):
+    """True/False: the notebook ran/failed; None: its kernel never got to a cell (worth one more try)."""
     notebook = nbformat.read(path, as_version=4)
     name = os.path.basename(path)
     code_cells = [c for c in notebook.cells if c.cell_type == "code"]
@@ -30,7 +77,7 @@ def run(path: str, out_dir: str) -> bool:
         print(f"  {name}: cell {done['count']}/{len(code_cells)} {status} "
               f"({time.monotonic() - started:.1f} s)", flush=True)
 
-    client = NotebookClient(
+    client = _OneStartAtATime(
         notebook,
         kernel_name="fringekit",
         timeout=600,
@@ -47,6 +94,9 @@ def run(path: str, out_dir: str) -> bool:
         reason = f"{error.ename}: {error.evalue}" if getattr(error, "ename", None) else str(error).strip().splitlines()[-1]
         print(f"  {name}: FAILED in cell {done['count']}/{len(code_cells)}: {reason}", flush=True)
     except Exception as error:  # kernel died, timeout, missing kernelspec: say which notebook
+        if done["count"] == 0 and not last_try:
+            print(f"  {name}: the kernel did not start ({type(error).__name__}: {error}); starting it once more", flush=True)
+            return None
         ok = False
         print(f"  {name}: FAILED: {type(error).__name__}: {error}", flush=True)
     target = os.path.join(out_dir, name)
@@ -69,7 +119,8 @@ def main(argv: list[str]) -> int:
     if jobs == 1:
         results = [run(p, out_dir) for p in paths]
     else:
-        with multiprocessing.get_context("spawn").Pool(jobs) as pool:
+        context = multiprocessing.get_context("spawn")
+        with context.Pool(jobs, initializer=_share_start_lock, initargs=(context.Lock(),)) as pool:
             results = pool.starmap(run, [(p, out_dir) for p in paths])
     return 0 if all(results) else 1
 
